@@ -1,0 +1,107 @@
+// Case: what the case file said, validated, in SI units and kelvin.
+#pragma once
+
+#include <array>
+#include <filesystem>
+#include <map>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace hearth {
+
+constexpr double kelvin_offset = 273.15;  // 0 degC in K, exact
+
+// The case's units: what the user writes and what results are reported in.
+struct Units {
+  std::string length = "m";          // "m" | "mm"
+  std::string temperature = "degC";  // "degC" | "K"
+
+  double metres_per_length() const { return length == "mm" ? 1e-3 : 1.0; }
+  double to_kelvin(double t) const { return temperature == "degC" ? t + kelvin_offset : t; }
+  double from_kelvin(double t) const { return temperature == "degC" ? t - kelvin_offset : t; }
+};
+
+// Where a key sits in the case file, for messages that point at it.
+struct Place {
+  std::string file;  // as the user gave it
+  int line = 0;      // 1-based; 0 when not from the file (defaults, --set)
+  std::string key;   // dotted path, e.g. "boundaries.cold_face.convection"
+  std::string str() const;  // "case.yaml:12: boundaries.cold_face"
+};
+
+struct MaterialSpec {
+  std::string name;
+  double conductivity = 0.0;                     // W/(m K), > 0
+  std::optional<double> density;                 // kg/m3
+  std::optional<double> specific_heat;           // J/(kg K)
+  std::optional<double> max_service_temperature; // K
+  Place place;
+};
+
+struct ConvectionSpec {
+  double coefficient = 0.0;  // W/(m2 K), > 0
+  double ambient = 0.0;      // K
+};
+
+// One named surface's condition. `temperature` excludes the others; convection and
+// heat_flux may be combined. No entry at all means insulated.
+struct BoundarySpec {
+  std::string name;
+  std::optional<double> temperature;  // K
+  std::optional<double> heat_flux;    // W/m2 into the body
+  std::optional<ConvectionSpec> convection;
+  Place place;
+};
+
+struct ProbeSpec {
+  std::string name;
+  std::array<double, 3> point{};  // metres
+  Place place;
+};
+
+struct LineSpec {
+  std::string name;
+  std::array<double, 3> from{}, to{};  // metres
+  int points = 101;                    // >= 2
+  Place place;
+};
+
+struct SolverSpec {
+  std::string linear = "auto";        // "auto" | "direct" | "iterative"
+  double tolerance = 1e-10;           // relative residual of the linear solve
+  double nonlinear_tolerance = 1e-8;
+  int nonlinear_max_iterations = 30;
+};
+
+struct Case {
+  std::filesystem::path file;          // the case file, as given
+  std::filesystem::path directory;     // its folder (absolute); relative paths resolve here
+  int version = 1;
+  std::string title;
+  Units units;
+
+  std::filesystem::path geometry_file;  // absolute
+  Place geometry_place;
+
+  double mesh_size = 0.0;                      // metres
+  int mesh_order = 1;                          // 1 | 2
+  std::map<std::string, double> local_sizes;   // name -> metres
+  std::map<std::string, Place> local_size_places;
+  int mesh_refinements = 0;                    // uniform splits (studies)
+
+  std::map<std::string, MaterialSpec> materials;
+  std::map<std::string, std::string> regions;   // physical volume -> material name
+  std::map<std::string, Place> region_places;
+  std::map<std::string, double> heat_sources;   // physical volume -> W/m3
+  std::map<std::string, Place> heat_source_places;
+  std::map<std::string, BoundarySpec> boundaries;
+
+  std::string analysis_type = "steady";
+  SolverSpec solver;
+  std::vector<ProbeSpec> probes;
+  std::vector<LineSpec> lines;
+  std::filesystem::path output_directory;  // absolute
+};
+
+}  // namespace hearth
