@@ -1,0 +1,201 @@
+// Pattern, position maps and the threaded assembly loop.
+#include "solver/assembler.hpp"
+
+#include <algorithm>
+#include <omp.h>
+#include <stdexcept>
+
+namespace hearth {
+
+TetGeometry tet_geometry(const Mesh& mesh, std::size_t element) {
+  TetGeometry g;
+  g.order = mesh.order;
+  const std::int32_t* nodes = mesh.tet(element);
+  for (int a = 0; a < mesh.nodes_per_tet(); ++a) g.x[a] = mesh.node(nodes[a]);
+  return g;
+}
+
+FaceGeometry face_geometry(const Mesh& mesh, std::size_t face) {
+  FaceGeometry g;
+  g.order = mesh.order;
+  const std::int32_t* nodes = mesh.face(face);
+  for (int a = 0; a < mesh.nodes_per_face(); ++a) g.x[a] = mesh.node(nodes[a]);
+  return g;
+}
+
+Assembler::Assembler(const Mesh& mesh, const DofMap& dofs, int threads) : mesh_(mesh), dofs_(dofs) {
+  threads_ = threads > 0 ? threads : omp_get_max_threads();
+  build_pattern();
+  build_positions();
+  partition_rows();
+}
+
+void Assembler::build_pattern() {
+  const std::size_t n_nodes = mesh_.n_nodes();
+  const int npe = mesh_.nodes_per_tet();
+  // Node -> elements adjacency (counting sort).
+  std::vector<std::int64_t> start(n_nodes + 1, 0);
+  for (std::size_t e = 0; e < mesh_.n_tets(); ++e)
+    for (int a = 0; a < npe; ++a) ++start[mesh_.tet(e)[a] + 1];
+  for (std::size_t i = 0; i < n_nodes; ++i) start[i + 1] += start[i];
+  std::vector<std::int32_t> node_tets(start[n_nodes]);
+  {
+    std::vector<std::int64_t> fill(start.begin(), start.end() - 1);
+    for (std::size_t e = 0; e < mesh_.n_tets(); ++e)
+      for (int a = 0; a < npe; ++a) node_tets[fill[mesh_.tet(e)[a]]++] = static_cast<std::int32_t>(e);
+  }
+  const std::int32_t n = dofs_.n_free();
+  pattern_.n = n;
+  pattern_.row_ptr.assign(n + 1, 0);
+  std::vector<std::vector<std::int32_t>> rows_cols(n);
+#pragma omp parallel num_threads(threads_)
+  {
+    std::vector<std::int32_t> marker(n, -1);
+#pragma omp for schedule(dynamic, 1024)
+    for (std::int32_t r = 0; r < n; ++r) {
+      const std::int32_t node = dofs_.free_nodes[r];
+      auto& cols = rows_cols[r];
+      for (std::int64_t p = start[node]; p < start[node + 1]; ++p) {
+        const std::int32_t* nodes = mesh_.tet(node_tets[p]);
+        for (int b = 0; b < npe; ++b) {
+          const std::int32_t c = dofs_.free_index[nodes[b]];
+          if (c >= 0 && marker[c] != r) {
+            marker[c] = r;
+            cols.push_back(c);
+          }
+        }
+      }
+      std::sort(cols.begin(), cols.end());
+    }
+  }
+  for (std::int32_t r = 0; r < n; ++r) pattern_.row_ptr[r + 1] = pattern_.row_ptr[r] + rows_cols[r].size();
+  if (pattern_.row_ptr[n] > std::int64_t(2147483647))
+    throw std::runtime_error("matrix has more than 2^31 nonzeros; the mesh is too large for one process");
+  pattern_.col.resize(pattern_.row_ptr[n]);
+  for (std::int32_t r = 0; r < n; ++r) {
+    std::copy(rows_cols[r].begin(), rows_cols[r].end(), pattern_.col.begin() + pattern_.row_ptr[r]);
+    std::vector<std::int32_t>().swap(rows_cols[r]);
+  }
+}
+
+namespace {
+std::int32_t find_position(const CsrMatrix& m, std::int32_t row, std::int32_t col) {
+  const auto first = m.col.begin() + m.row_ptr[row], last = m.col.begin() + m.row_ptr[row + 1];
+  return static_cast<std::int32_t>(std::lower_bound(first, last, col) - m.col.begin());
+}
+
+// Local (a, b) -> CSR position, or -1 where row or column is fixed.
+void fill_positions(const CsrMatrix& m, const DofMap& dofs, const std::int32_t* nodes, int n, std::int32_t* out) {
+  for (int a = 0; a < n; ++a) {
+    const std::int32_t r = dofs.free_index[nodes[a]];
+    for (int b = 0; b < n; ++b) {
+      const std::int32_t c = dofs.free_index[nodes[b]];
+      out[a * n + b] = (r >= 0 && c >= 0) ? find_position(m, r, c) : -1;
+    }
+  }
+}
+}  // namespace
+
+void Assembler::build_positions() {
+  const int npe = mesh_.nodes_per_tet(), npf = mesh_.nodes_per_face();
+  tet_positions_.resize(mesh_.n_tets() * npe * npe);
+  face_positions_.resize(mesh_.n_faces() * npf * npf);
+  const std::int64_t n_tets = static_cast<std::int64_t>(mesh_.n_tets());
+#pragma omp parallel for schedule(static) num_threads(threads_)
+  for (std::int64_t e = 0; e < n_tets; ++e)
+    fill_positions(pattern_, dofs_, mesh_.tet(e), npe, &tet_positions_[e * npe * npe]);
+  for (std::size_t f = 0; f < mesh_.n_faces(); ++f)
+    fill_positions(pattern_, dofs_, mesh_.face(f), npf, &face_positions_[f * npf * npf]);
+}
+
+void Assembler::partition_rows() {
+  // Split rows into contiguous ranges of about equal nonzeros.
+  const std::int32_t n = pattern_.n;
+  row_begin_.assign(threads_ + 1, n);
+  row_begin_[0] = 0;
+  std::int32_t r = 0;
+  for (int t = 1; t < threads_; ++t) {
+    const std::int64_t target = pattern_.nnz() * t / threads_;
+    while (r < n && pattern_.row_ptr[r] < target) ++r;
+    row_begin_[t] = r;
+  }
+  thread_tets_.assign(threads_, {});
+  thread_faces_.assign(threads_, {});
+  auto owners = [&](const std::int32_t* nodes, int count, std::vector<std::vector<std::int32_t>>& lists,
+                    std::int32_t item) {
+    std::uint64_t mask = 0;
+    for (int a = 0; a < count; ++a) {
+      const std::int32_t row = dofs_.free_index[nodes[a]];
+      if (row < 0) continue;
+      const int t = static_cast<int>(std::upper_bound(row_begin_.begin(), row_begin_.end(), row) - row_begin_.begin()) - 1;
+      mask |= std::uint64_t(1) << t;
+    }
+    for (int t = 0; t < threads_; ++t)
+      if (mask & (std::uint64_t(1) << t)) lists[t].push_back(item);
+  };
+  if (threads_ > 64) throw std::runtime_error("at most 64 assembly threads");
+  for (std::size_t e = 0; e < mesh_.n_tets(); ++e)
+    owners(mesh_.tet(e), mesh_.nodes_per_tet(), thread_tets_, static_cast<std::int32_t>(e));
+  for (std::size_t f = 0; f < mesh_.n_faces(); ++f)
+    owners(mesh_.face(f), mesh_.nodes_per_face(), thread_faces_, static_cast<std::int32_t>(f));
+}
+
+void Assembler::assemble(const ThermalProblem& problem, CsrMatrix& A, std::vector<double>& b) const {
+  if (A.row_ptr.size() != pattern_.row_ptr.size()) {
+    A.n = pattern_.n;
+    A.row_ptr = pattern_.row_ptr;
+    A.col = pattern_.col;
+  }
+  A.val.assign(pattern_.nnz(), 0.0);
+  b.assign(pattern_.n, 0.0);
+  const int npe = mesh_.nodes_per_tet(), npf = mesh_.nodes_per_face();
+
+#pragma omp parallel num_threads(threads_)
+  {
+    const int t = omp_get_thread_num();
+    const std::int32_t own_begin = row_begin_[t], own_end = row_begin_[t + 1];
+    double K[max_tet_nodes * max_tet_nodes], F[max_tet_nodes];
+    // Scatter one local matrix and load: owned free rows only; fixed columns go to b.
+    auto scatter = [&](const std::int32_t* nodes, int n, const std::int32_t* positions) {
+      for (int a = 0; a < n; ++a) {
+        const std::int32_t r = dofs_.free_index[nodes[a]];
+        if (r < own_begin || r >= own_end) continue;  // also skips fixed rows (r = -1)
+        double rhs = F[a];
+        for (int c = 0; c < n; ++c) {
+          const std::int32_t p = positions[a * n + c];
+          if (p >= 0)
+            A.val[p] += K[a * n + c];
+          else
+            rhs -= K[a * n + c] * dofs_.fixed_value[nodes[c]];
+        }
+        b[r] += rhs;
+      }
+    };
+    for (const std::int32_t e : thread_tets_[t]) {
+      const RegionProperties& region = problem.regions[mesh_.tet_region[e]];
+      const TetGeometry g = tet_geometry(mesh_, e);
+      std::fill(K, K + npe * npe, 0.0);
+      std::fill(F, F + npe, 0.0);
+      add_tet_conductance(g, region.conductivity, K);   // int k grad N_a . grad N_b
+      add_tet_source(g, region.heat_source, F);         // int f N_a
+      if (problem.source_field) add_tet_source_field(g, problem.source_field, problem.source_field_degree, F);
+      scatter(mesh_.tet(e), npe, &tet_positions_[std::size_t(e) * npe * npe]);
+    }
+    for (const std::int32_t f : thread_faces_[t]) {
+      const BoundaryCondition& bc = problem.boundaries[mesh_.face_boundary[f]];
+      if (bc.is_fixed() || bc.is_insulated()) continue;
+      const FaceGeometry g = face_geometry(mesh_, f);
+      std::fill(K, K + npf * npf, 0.0);
+      std::fill(F, F + npf, 0.0);
+      double q_in = bc.heat_flux;  // int (q_in + h T_inf) N_a
+      if (bc.convection) {
+        add_face_mass(g, bc.convection->coefficient, K);  // int h N_a N_b
+        q_in += bc.convection->coefficient * bc.convection->ambient;
+      }
+      add_face_load(g, q_in, F);
+      scatter(mesh_.face(f), npf, &face_positions_[std::size_t(f) * npf * npf]);
+    }
+  }
+}
+
+}  // namespace hearth

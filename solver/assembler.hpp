@@ -1,0 +1,49 @@
+// Assembler: the reduced conduction system A T_free = b on a CSR pattern built once.
+#pragma once
+
+#include <cstdint>
+#include <vector>
+
+#include "mesh/mesh.hpp"
+#include "solver/csr_matrix.hpp"
+#include "solver/dof_map.hpp"
+#include "solver/problem.hpp"
+#include "solver/tet_element.hpp"
+
+namespace hearth {
+
+TetGeometry tet_geometry(const Mesh& mesh, std::size_t element);
+FaceGeometry face_geometry(const Mesh& mesh, std::size_t face);
+
+// Builds the sparsity pattern of the free-node system and, per element and per face,
+// the position in CSR storage of every local (a, b) pair, once. assemble() then writes
+// element matrices straight into place: re-assembly in Newton or time loops costs one
+// pass over the elements. Threads own contiguous row ranges, so no two threads write
+// the same entry (no atomics); an element straddling two ranges is computed by both.
+// Fixed temperatures are eliminated symmetrically: their columns move to b.
+class Assembler {
+ public:
+  Assembler(const Mesh& mesh, const DofMap& dofs, int threads = 0);
+
+  // A gets the pattern (on first use) and the values; b the load. Units: W/K and W.
+  void assemble(const ThermalProblem& problem, CsrMatrix& A, std::vector<double>& b) const;
+
+  const CsrMatrix& pattern() const { return pattern_; }
+  int threads() const { return threads_; }
+
+ private:
+  void build_pattern();
+  void build_positions();
+  void partition_rows();
+
+  const Mesh& mesh_;
+  const DofMap& dofs_;
+  int threads_ = 1;
+  CsrMatrix pattern_;                          // row_ptr and col only
+  std::vector<std::int32_t> tet_positions_;    // n_tets * npe * npe, -1: not in the system
+  std::vector<std::int32_t> face_positions_;   // n_faces * npf * npf
+  std::vector<std::int32_t> row_begin_;        // threads + 1
+  std::vector<std::vector<std::int32_t>> thread_tets_, thread_faces_;
+};
+
+}  // namespace hearth

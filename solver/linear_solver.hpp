@@ -1,0 +1,59 @@
+// Linear solvers for the symmetric positive-definite conduction system, behind one
+// interface: CHOLMOD sparse Cholesky and hypre BoomerAMG-preconditioned CG.
+#pragma once
+
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "solver/csr_matrix.hpp"
+
+namespace hearth {
+
+enum class LinearSolverKind { automatic, direct, iterative };
+
+struct LinearSolverSettings {
+  LinearSolverKind kind = LinearSolverKind::automatic;
+  double tolerance = 1e-10;      // relative residual |b - A x| / |b| (iterative)
+  int max_iterations = 1000;
+  // automatic: direct up to this many unknowns, multigrid above (see docs/methods.md
+  // for the measurements behind the number).
+  std::int64_t direct_limit = 40000;
+};
+
+enum class SolveStatus { converged, not_converged, breakdown };
+
+// The outcome of one solve, as a value: the driver turns failures into messages.
+struct LinearSolveReport {
+  SolveStatus status = SolveStatus::converged;
+  std::string solver;               // "cholmod" | "boomeramg-pcg"
+  int iterations = 0;               // 0 for the direct solver
+  double relative_residual = 0.0;   // |b - A x| / |b|, measured after the solve
+  double setup_seconds = 0.0;       // factorisation or multigrid hierarchy
+  double solve_seconds = 0.0;
+  std::string message;              // why, when not converged
+  bool converged() const { return status == SolveStatus::converged; }
+};
+
+class LinearSolver {
+ public:
+  virtual ~LinearSolver() = default;
+  virtual std::string name() const = 0;
+  // Prepares for A (factorisation or hierarchy). A must stay alive until the last solve.
+  virtual void setup(const CsrMatrix& A) = 0;
+  // Solves A x = b; x holds the initial guess on entry (used by iterative solvers).
+  virtual LinearSolveReport solve(const std::vector<double>& b, std::vector<double>& x) = 0;
+};
+
+std::unique_ptr<LinearSolver> make_cholmod_solver();
+std::unique_ptr<LinearSolver> make_amg_cg_solver(double tolerance, int max_iterations);
+// Picks by settings.kind, and for automatic by the number of unknowns.
+std::unique_ptr<LinearSolver> make_linear_solver(const LinearSolverSettings& settings, std::int64_t unknowns);
+
+// Relative residual |b - A x| / |b| (|b| = 0: absolute residual).
+double relative_residual(const CsrMatrix& A, const std::vector<double>& b, const std::vector<double>& x);
+
+// Which BLAS the process has loaded (CHOLMOD's speed depends on it), e.g. "OpenBLAS 0.3.21 ...".
+std::string loaded_blas();
+
+}  // namespace hearth

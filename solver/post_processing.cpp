@@ -1,0 +1,364 @@
+// Heat flux recovery, consistent heat rates, energy balance and field statistics.
+#include "solver/post_processing.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <omp.h>
+#include <unordered_map>
+
+#include "solver/assembler.hpp"
+#include "solver/quadrature.hpp"
+
+namespace hearth {
+
+namespace {
+
+constexpr int tet_face_vertices[4][3] = {{0, 1, 2}, {0, 1, 3}, {0, 2, 3}, {1, 2, 3}};
+constexpr int tet_face_opposite[4] = {3, 2, 1, 0};
+
+struct TripleHash {
+  std::size_t operator()(const std::array<std::int32_t, 3>& k) const {
+    std::size_t h = std::hash<std::int64_t>()((std::int64_t(k[0]) << 32) ^ k[1]);
+    return h ^ (std::hash<std::int32_t>()(k[2]) + 0x9e3779b97f4a7c15ULL + (h << 6) + (h >> 2));
+  }
+};
+
+std::array<std::int32_t, 3> sorted_triple(std::int32_t a, std::int32_t b, std::int32_t c) {
+  std::array<std::int32_t, 3> k{a, b, c};
+  std::sort(k.begin(), k.end());
+  return k;
+}
+
+Point sub(const Point& a, const Point& b) { return {a[0] - b[0], a[1] - b[1], a[2] - b[2]}; }
+double dot(const Point& a, const Point& b) { return a[0] * b[0] + a[1] * b[1] + a[2] * b[2]; }
+Point cross(const Point& a, const Point& b) {
+  return {a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]};
+}
+
+// Straight-triangle normal times twice the area (right-hand rule of the vertex order).
+Point face_area_normal(const Mesh& mesh, std::size_t f) {
+  const std::int32_t* n = mesh.face(f);
+  return cross(sub(mesh.node(n[1]), mesh.node(n[0])), sub(mesh.node(n[2]), mesh.node(n[0])));
+}
+
+// Gradient of the interpolated field at reference point xi of element e.
+Point field_gradient(const Mesh& mesh, const TetGeometry& g, std::size_t e, const Point& xi,
+                     const std::vector<double>& field) {
+  double grad[max_tet_nodes][3];
+  tet_physical_gradients(g, xi, grad);
+  Point result{0, 0, 0};
+  const std::int32_t* nodes = mesh.tet(e);
+  for (int a = 0; a < mesh.nodes_per_tet(); ++a)
+    for (int d = 0; d < 3; ++d) result[d] += field[nodes[a]] * grad[a][d];
+  return result;
+}
+
+int volume_degree(const TetGeometry& g) { return g.affine() ? g.order : 4; }
+
+}  // namespace
+
+std::vector<std::array<std::int32_t, 2>> face_neighbours(const Mesh& mesh) {
+  std::unordered_map<std::array<std::int32_t, 3>, std::vector<std::int32_t>, TripleHash> faces_by_key;
+  faces_by_key.reserve(mesh.n_faces() * 2);
+  for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
+    const std::int32_t* n = mesh.face(f);
+    faces_by_key[sorted_triple(n[0], n[1], n[2])].push_back(static_cast<std::int32_t>(f));
+  }
+  std::vector<std::array<std::int32_t, 2>> neighbours(mesh.n_faces(), {-1, -1});
+  std::vector<Point> normals(mesh.n_faces());
+  for (std::size_t f = 0; f < mesh.n_faces(); ++f) normals[f] = face_area_normal(mesh, f);
+  for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
+    const std::int32_t* n = mesh.tet(e);
+    for (int k = 0; k < 4; ++k) {
+      const auto it = faces_by_key.find(
+          sorted_triple(n[tet_face_vertices[k][0]], n[tet_face_vertices[k][1]], n[tet_face_vertices[k][2]]));
+      if (it == faces_by_key.end()) continue;
+      for (const std::int32_t f : it->second) {
+        const double side = dot(sub(mesh.node(n[tet_face_opposite[k]]), mesh.node(mesh.face(f)[0])), normals[f]);
+        neighbours[f][side < 0 ? 0 : 1] = static_cast<std::int32_t>(e);
+      }
+    }
+  }
+  return neighbours;
+}
+
+std::vector<double> nodal_residual(const Mesh& mesh, const ThermalProblem& problem,
+                                   const std::vector<double>& temperature, const std::vector<char>* element_mask,
+                                   const std::vector<char>* face_mask) {
+  const int npe = mesh.nodes_per_tet(), npf = mesh.nodes_per_face();
+  const int threads = omp_get_max_threads();
+  std::vector<std::vector<double>> partial(threads, std::vector<double>(mesh.n_nodes(), 0.0));
+  const std::int64_t n_tets = static_cast<std::int64_t>(mesh.n_tets());
+#pragma omp parallel
+  {
+    std::vector<double>& r = partial[omp_get_thread_num()];
+    double K[max_tet_nodes * max_tet_nodes], F[max_tet_nodes];
+#pragma omp for schedule(static)
+    for (std::int64_t e = 0; e < n_tets; ++e) {
+      if (element_mask && !(*element_mask)[e]) continue;
+      const RegionProperties& region = problem.regions[mesh.tet_region[e]];
+      const TetGeometry g = tet_geometry(mesh, e);
+      std::fill(K, K + npe * npe, 0.0);
+      std::fill(F, F + npe, 0.0);
+      add_tet_conductance(g, region.conductivity, K);
+      add_tet_source(g, region.heat_source, F);
+      if (problem.source_field) add_tet_source_field(g, problem.source_field, problem.source_field_degree, F);
+      const std::int32_t* nodes = mesh.tet(e);
+      for (int a = 0; a < npe; ++a) {
+        double ra = -F[a];
+        for (int b = 0; b < npe; ++b) ra += K[a * npe + b] * temperature[nodes[b]];
+        r[nodes[a]] += ra;
+      }
+    }
+  }
+  std::vector<double> residual(mesh.n_nodes(), 0.0);
+  for (const auto& r : partial)
+    for (std::size_t i = 0; i < residual.size(); ++i) residual[i] += r[i];
+  // Boundary terms: + int h (T - T_inf) N_a - int q_in N_a.
+  for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
+    if (face_mask && !(*face_mask)[f]) continue;
+    const BoundaryCondition& bc = problem.boundaries[mesh.face_boundary[f]];
+    if (bc.is_fixed() || bc.is_insulated()) continue;
+    const FaceGeometry g = face_geometry(mesh, f);
+    double M[max_face_nodes * max_face_nodes] = {0}, F[max_face_nodes] = {0};
+    double q_in = bc.heat_flux;
+    if (bc.convection) {
+      add_face_mass(g, bc.convection->coefficient, M);
+      q_in += bc.convection->coefficient * bc.convection->ambient;
+    }
+    add_face_load(g, q_in, F);
+    const std::int32_t* nodes = mesh.face(f);
+    for (int a = 0; a < npf; ++a) {
+      double ra = -F[a];
+      for (int b = 0; b < npf; ++b) ra += M[a * npf + b] * temperature[nodes[b]];
+      residual[nodes[a]] += ra;
+    }
+  }
+  return residual;
+}
+
+namespace {
+
+// Boundary integral of the heat entering through a convection / flux face, W.
+double face_heat_in(const Mesh& mesh, std::size_t f, const BoundaryCondition& bc, const std::vector<double>& T) {
+  const FaceGeometry g = face_geometry(mesh, f);
+  const int npf = mesh.nodes_per_face();
+  double integrals[max_face_nodes];
+  face_shape_integrals(g, integrals);
+  double area = 0.0, t_integral = 0.0;
+  for (int a = 0; a < npf; ++a) {
+    area += integrals[a];
+    t_integral += integrals[a] * T[mesh.face(f)[a]];
+  }
+  double q = bc.heat_flux * area;
+  if (bc.convection) q += bc.convection->coefficient * (bc.convection->ambient * area - t_integral);
+  return q;
+}
+
+// Heat through the fixed-temperature boundaries from the nodal reactions; each node's
+// reaction is shared among the fixed boundaries touching it by their face areas there.
+void add_reaction_heat_rates(const Mesh& mesh, const ThermalProblem& problem, const std::vector<double>& residual,
+                             std::vector<BoundaryResult>& boundaries) {
+  const int npf = mesh.nodes_per_face();
+  std::vector<double> node_weight(mesh.n_nodes(), 0.0);
+  std::vector<double> face_areas(mesh.n_faces(), 0.0);
+  for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
+    if (!problem.boundaries[mesh.face_boundary[f]].is_fixed()) continue;
+    face_areas[f] = face_area(face_geometry(mesh, f));
+    for (int a = 0; a < npf; ++a) node_weight[mesh.face(f)[a]] += face_areas[f];
+  }
+  for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
+    if (!problem.boundaries[mesh.face_boundary[f]].is_fixed()) continue;
+    double q = 0.0;
+    for (int a = 0; a < npf; ++a) {
+      const std::int32_t i = mesh.face(f)[a];
+      q += residual[i] * face_areas[f] / node_weight[i];
+    }
+    boundaries[mesh.face_boundary[f]].heat_rate += q;
+  }
+}
+
+// Heat across an internal named surface in the direction of its normal: minus the
+// residual, at the surface's nodes, of the elements (and their boundary faces) behind it.
+double internal_heat_rate(const Mesh& mesh, const ThermalProblem& problem, const std::vector<double>& T,
+                          std::int32_t boundary, const std::vector<std::array<std::int32_t, 2>>& neighbours) {
+  const int npf = mesh.nodes_per_face(), npe = mesh.nodes_per_tet();
+  std::vector<char> on_surface(mesh.n_nodes(), 0);
+  std::vector<Point> node_normal(mesh.n_nodes(), Point{0, 0, 0});
+  for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
+    if (mesh.face_boundary[f] != boundary) continue;
+    const Point n = face_area_normal(mesh, f);
+    for (int a = 0; a < npf; ++a) {
+      const std::int32_t i = mesh.face(f)[a];
+      on_surface[i] = 1;
+      for (int d = 0; d < 3; ++d) node_normal[i][d] += n[d];
+    }
+  }
+  // Elements behind the surface: those sharing a face with it on its back, and those
+  // touching it at an edge or vertex whose centroid lies behind the nodal normals.
+  std::vector<char> behind(mesh.n_tets(), 0), decided(mesh.n_tets(), 0);
+  for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
+    if (mesh.face_boundary[f] != boundary) continue;
+    for (int side = 0; side < 2; ++side)
+      if (neighbours[f][side] >= 0) {
+        behind[neighbours[f][side]] = side == 0;
+        decided[neighbours[f][side]] = 1;
+      }
+  }
+  for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
+    if (decided[e]) continue;
+    const std::int32_t* nodes = mesh.tet(e);
+    Point centroid{0, 0, 0};
+    for (int a = 0; a < 4; ++a)
+      for (int d = 0; d < 3; ++d) centroid[d] += 0.25 * mesh.node(nodes[a])[d];
+    double side = 0.0;
+    bool touches = false;
+    for (int a = 0; a < npe; ++a)
+      if (on_surface[nodes[a]]) {
+        touches = true;
+        side += dot(sub(centroid, mesh.node(nodes[a])), node_normal[nodes[a]]);
+      }
+    behind[e] = touches && side < 0;
+  }
+  std::vector<char> face_mask(mesh.n_faces(), 0);
+  for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
+    const auto& nb = neighbours[f];
+    const bool exterior = (nb[0] < 0) != (nb[1] < 0);
+    if (exterior) face_mask[f] = behind[nb[0] >= 0 ? nb[0] : nb[1]];
+  }
+  const std::vector<double> r = nodal_residual(mesh, problem, T, &behind, &face_mask);
+  double q = 0.0;
+  for (std::size_t i = 0; i < mesh.n_nodes(); ++i)
+    if (on_surface[i]) q -= r[i];
+  return q;
+}
+
+void recover_fluxes(const Mesh& mesh, const ThermalProblem& problem, const std::vector<double>& T, Results& out) {
+  const int npe = mesh.nodes_per_tet();
+  out.cell_flux.assign(3 * mesh.n_tets(), 0.0);
+  out.nodal_flux.assign(3 * mesh.n_nodes(), 0.0);
+  std::vector<double> weight(mesh.n_nodes(), 0.0);
+  for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
+    const double k = problem.regions[mesh.tet_region[e]].conductivity;
+    const TetGeometry g = tet_geometry(mesh, e);
+    const Point c = field_gradient(mesh, g, e, {0.25, 0.25, 0.25}, T);
+    for (int d = 0; d < 3; ++d) out.cell_flux[3 * e + d] = -k * c[d];
+    // Volume-weighted average of the element's own flux at each of its nodes.
+    const double w = tet_volume(g);
+    for (int a = 0; a < npe; ++a) {
+      const Point q = mesh.order == 1 ? c : field_gradient(mesh, g, e, tet_node_reference(a), T);
+      const std::int32_t i = mesh.tet(e)[a];
+      for (int d = 0; d < 3; ++d) out.nodal_flux[3 * i + d] += -k * q[d] * w;
+      weight[i] += w;
+    }
+  }
+  for (std::size_t i = 0; i < mesh.n_nodes(); ++i)
+    if (weight[i] > 0)
+      for (int d = 0; d < 3; ++d) out.nodal_flux[3 * i + d] /= weight[i];
+}
+
+void update_extremes(Stats& s, std::array<double, 3>& hottest, double t, const Point& x, bool& first) {
+  if (first || t < s.min) s.min = t;
+  if (first || t > s.max) {
+    s.max = t;
+    hottest = x;
+  }
+  first = false;
+}
+
+}  // namespace
+
+Results post_process(const Mesh& mesh, const ThermalProblem& problem, const std::vector<double>& T) {
+  Results out;
+  recover_fluxes(mesh, problem, T, out);
+
+  // Regions: volume, volume-averaged temperature, extremes over nodes, generated heat.
+  out.regions.resize(mesh.regions.size());
+  std::vector<double> t_integral(mesh.regions.size(), 0.0);
+  std::vector<char> first(mesh.regions.size(), 1);
+  for (std::size_t r = 0; r < mesh.regions.size(); ++r) out.regions[r].name = mesh.regions[r].name;
+  double N[max_tet_nodes], J[3][3];
+  for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
+    const int r = mesh.tet_region[e];
+    const TetGeometry g = tet_geometry(mesh, e);
+    const std::int32_t* nodes = mesh.tet(e);
+    for (const auto& q : tet_rule(volume_degree(g))) {
+      tet_shape_values(g.order, q.xi, N);
+      const double w = q.weight * tet_jacobian(g, q.xi, J);
+      double t = 0.0;
+      for (int a = 0; a < mesh.nodes_per_tet(); ++a) t += N[a] * T[nodes[a]];
+      out.regions[r].volume += w;
+      t_integral[r] += w * t;
+    }
+    bool f = first[r];
+    for (int a = 0; a < mesh.nodes_per_tet(); ++a)
+      update_extremes(out.regions[r].temperature, out.regions[r].hottest, T[nodes[a]], mesh.node(nodes[a]), f);
+    first[r] = f;
+  }
+  for (std::size_t r = 0; r < mesh.regions.size(); ++r) {
+    auto& region = out.regions[r];
+    if (region.volume > 0) region.temperature.mean = t_integral[r] / region.volume;
+    region.heat_generated = region.volume * problem.regions[r].heat_source;
+  }
+  if (problem.source_field) {  // manufactured sources: integrate them too
+    for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
+      const TetGeometry g = tet_geometry(mesh, e);
+      for (const auto& q : tet_rule(problem.source_field_degree))
+        out.regions[mesh.tet_region[e]].heat_generated +=
+            q.weight * tet_jacobian(g, q.xi, J) * problem.source_field(tet_map(g, q.xi));
+    }
+  }
+
+  // Boundaries: area, area-averaged temperature, extremes, heat rates.
+  const auto neighbours = face_neighbours(mesh);
+  out.boundaries.resize(mesh.boundaries.size());
+  std::vector<double> bt_integral(mesh.boundaries.size(), 0.0);
+  std::vector<char> bfirst(mesh.boundaries.size(), 1);
+  std::vector<char> has_exterior_face(mesh.boundaries.size(), 0);
+  for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) out.boundaries[b].name = mesh.boundaries[b].name;
+  for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
+    const int b = mesh.face_boundary[f];
+    BoundaryResult& br = out.boundaries[b];
+    const FaceGeometry g = face_geometry(mesh, f);
+    double integrals[max_face_nodes];
+    face_shape_integrals(g, integrals);
+    for (int a = 0; a < mesh.nodes_per_face(); ++a) {
+      br.area += integrals[a];
+      bt_integral[b] += integrals[a] * T[mesh.face(f)[a]];
+    }
+    bool fst = bfirst[b];
+    for (int a = 0; a < mesh.nodes_per_face(); ++a)
+      update_extremes(br.temperature, br.hottest, T[mesh.face(f)[a]], mesh.node(mesh.face(f)[a]), fst);
+    bfirst[b] = fst;
+    if (neighbours[f][0] < 0 || neighbours[f][1] < 0) has_exterior_face[b] = 1;
+    const BoundaryCondition& bc = problem.boundaries[b];
+    if (!bc.is_fixed() && !bc.is_insulated()) br.heat_rate += face_heat_in(mesh, f, bc, T);
+  }
+  for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) {
+    out.boundaries[b].internal = !has_exterior_face[b] && out.boundaries[b].area > 0;
+    if (out.boundaries[b].area > 0) out.boundaries[b].temperature.mean = bt_integral[b] / out.boundaries[b].area;
+  }
+  bool any_fixed = false;
+  for (const auto& bc : problem.boundaries) any_fixed |= bc.is_fixed();
+  if (any_fixed) add_reaction_heat_rates(mesh, problem, nodal_residual(mesh, problem, T), out.boundaries);
+  for (std::size_t b = 0; b < mesh.boundaries.size(); ++b)
+    if (out.boundaries[b].internal && !problem.boundaries[b].is_fixed())
+      out.boundaries[b].heat_rate = internal_heat_rate(mesh, problem, T, static_cast<std::int32_t>(b), neighbours);
+
+  // Energy balance over the exterior boundaries and the sources.
+  EnergyBalance& eb = out.balance;
+  for (const auto& b : out.boundaries) {
+    if (b.internal) continue;
+    if (b.heat_rate > 0)
+      eb.boundary_in += b.heat_rate;
+    else
+      eb.boundary_out -= b.heat_rate;
+  }
+  for (const auto& r : out.regions) eb.sources += r.heat_generated;
+  const double scale = std::max({eb.boundary_in + std::abs(eb.sources), eb.boundary_out, 1e-300});
+  eb.relative_imbalance = (eb.boundary_in + eb.sources - eb.boundary_out - eb.stored) / scale;
+  return out;
+}
+
+}  // namespace hearth

@@ -1,0 +1,107 @@
+// Quadrature rules: compact Gauss rules for low degrees, collapsed products above.
+#include "solver/quadrature.hpp"
+
+#include <cmath>
+#include <map>
+#include <mutex>
+#include <stdexcept>
+
+namespace hearth {
+
+std::vector<std::array<double, 2>> gauss_legendre_01(int n) {
+  // Newton iteration on the Legendre polynomial P_n from Chebyshev-like guesses.
+  std::vector<std::array<double, 2>> rule(n);
+  const double pi = std::acos(-1.0);
+  for (int i = 0; i < n; ++i) {
+    double x = std::cos(pi * (i + 0.75) / (n + 0.5));
+    double dp = 0.0;
+    for (int iter = 0; iter < 100; ++iter) {
+      double p0 = 1.0, p1 = x;
+      for (int k = 2; k <= n; ++k) {
+        const double pk = ((2.0 * k - 1.0) * x * p1 - (k - 1.0) * p0) / k;
+        p0 = p1;
+        p1 = pk;
+      }
+      dp = n * (x * p1 - p0) / (x * x - 1.0);
+      const double dx = p1 / dp;
+      x -= dx;
+      if (std::abs(dx) < 1e-16) break;
+    }
+    // Recompute the derivative at the converged node for the weight.
+    double p0 = 1.0, p1 = x;
+    for (int k = 2; k <= n; ++k) {
+      const double pk = ((2.0 * k - 1.0) * x * p1 - (k - 1.0) * p0) / k;
+      p0 = p1;
+      p1 = pk;
+    }
+    dp = n * (x * p1 - p0) / (x * x - 1.0);
+    const double w = 2.0 / ((1.0 - x * x) * dp * dp);
+    rule[i] = {0.5 * (1.0 - x), 0.5 * w};  // map [-1,1] -> [0,1]
+  }
+  return rule;
+}
+
+namespace {
+
+std::vector<QuadraturePoint> make_tet_rule(int degree) {
+  if (degree <= 1) return {{{0.25, 0.25, 0.25}, 1.0 / 6.0}};
+  if (degree == 2) {
+    const double a = 0.1381966011250105, b = 0.5854101966249685;
+    const double w = 1.0 / 24.0;
+    return {{{a, a, a}, w}, {{b, a, a}, w}, {{a, b, a}, w}, {{a, a, b}, w}};
+  }
+  // Duffy map (u,v,w) in [0,1]^3 -> x = u, y = v(1-u), z = w(1-u)(1-v), Jacobian
+  // (1-u)^2 (1-v). A degree-p polynomial becomes degree p+2 in u, so n points with
+  // 2n - 1 >= p + 2 suffice in every direction.
+  const int n = (degree + 4) / 2;
+  const auto g = gauss_legendre_01(n);
+  std::vector<QuadraturePoint> rule;
+  for (const auto& [u, wu] : g)
+    for (const auto& [v, wv] : g)
+      for (const auto& [w, ww] : g) {
+        const double x = u, y = v * (1 - u), z = w * (1 - u) * (1 - v);
+        rule.push_back({{x, y, z}, wu * wv * ww * (1 - u) * (1 - u) * (1 - v)});
+      }
+  return rule;
+}
+
+std::vector<QuadraturePoint> make_triangle_rule(int degree) {
+  if (degree <= 1) return {{{1.0 / 3.0, 1.0 / 3.0, 0.0}, 0.5}};
+  if (degree == 2) {
+    const double w = 1.0 / 6.0;
+    return {{{1.0 / 6.0, 1.0 / 6.0, 0}, w}, {{2.0 / 3.0, 1.0 / 6.0, 0}, w}, {{1.0 / 6.0, 2.0 / 3.0, 0}, w}};
+  }
+  // Duffy map (u,v) -> s = u, t = v(1-u), Jacobian (1-u).
+  const int n = (degree + 3) / 2;
+  const auto g = gauss_legendre_01(n);
+  std::vector<QuadraturePoint> rule;
+  for (const auto& [u, wu] : g)
+    for (const auto& [v, wv] : g) rule.push_back({{u, v * (1 - u), 0.0}, wu * wv * (1 - u)});
+  return rule;
+}
+
+template <class Make>
+const std::vector<QuadraturePoint>& cached(std::map<int, std::vector<QuadraturePoint>>& cache,
+                                           int degree, Make make) {
+  static std::mutex mutex;
+  std::lock_guard<std::mutex> lock(mutex);
+  auto it = cache.find(degree);
+  if (it == cache.end()) it = cache.emplace(degree, make(degree)).first;
+  return it->second;
+}
+
+}  // namespace
+
+const std::vector<QuadraturePoint>& tet_rule(int degree) {
+  static std::map<int, std::vector<QuadraturePoint>> cache;
+  if (degree < 0 || degree > 30) throw std::invalid_argument("tet_rule: degree out of range");
+  return cached(cache, degree, make_tet_rule);
+}
+
+const std::vector<QuadraturePoint>& triangle_rule(int degree) {
+  static std::map<int, std::vector<QuadraturePoint>> cache;
+  if (degree < 0 || degree > 30) throw std::invalid_argument("triangle_rule: degree out of range");
+  return cached(cache, degree, make_triangle_rule);
+}
+
+}  // namespace hearth

@@ -1,0 +1,58 @@
+// Element integrals on 4- and 10-node tetrahedra and 3- and 6-node triangles.
+//
+// Weak form of steady conduction, -div(k grad T) = f:
+//   sum_e  int_e k grad N_a . grad N_b  T_b   (conductance)
+// + sum_f  int_f h N_a N_b T_b                (convection)
+// = sum_e  int_e f N_a + sum_f int_f (q_in + h T_inf) N_a.
+#pragma once
+
+#include <array>
+#include <functional>
+
+#include "solver/shape_functions.hpp"
+
+namespace hearth {
+
+using Point = std::array<double, 3>;
+
+// Node coordinates of one tetrahedron, in the canonical order.
+struct TetGeometry {
+  int order = 1;
+  Point x[max_tet_nodes];
+  // True when the element is straight-sided (P1, or P2 with edge nodes at the edge
+  // midpoints): then the Jacobian is constant and low-order rules are exact.
+  bool affine() const;
+};
+
+// Jacobian J[i][d] = dx_i/dxi_d at reference point xi; returns det J.
+double tet_jacobian(const TetGeometry& g, const Point& xi, double J[3][3]);
+// Physical gradients of the shape functions at xi; returns det J (> 0 for valid elements).
+double tet_physical_gradients(const TetGeometry& g, const Point& xi, double (*grad)[3]);
+Point tet_map(const TetGeometry& g, const Point& xi);
+
+double tet_volume(const TetGeometry& g);
+
+// K[a][b] += k * int grad N_a . grad N_b, isotropic k in W/(m K). K is n x n, n = nodes.
+void add_tet_conductance(const TetGeometry& g, double conductivity, double* K);
+// F[a] += int f N_a for constant f (W/m3).
+void add_tet_source(const TetGeometry& g, double source, double* F);
+// F[a] += int f(x) N_a, integrated with a rule of the given degree.
+void add_tet_source_field(const TetGeometry& g, const std::function<double(const Point&)>& f,
+                          int degree, double* F);
+
+struct FaceGeometry {
+  int order = 1;
+  Point x[max_face_nodes];
+};
+
+// Surface measure |dx/ds x dx/dt| and unit normal (right-hand rule) at (s, t).
+double face_jacobian(const FaceGeometry& g, double s, double t, Point* normal = nullptr);
+double face_area(const FaceGeometry& g);
+// M[a][b] += h * int N_a N_b dA.
+void add_face_mass(const FaceGeometry& g, double h, double* M);
+// F[a] += q * int N_a dA (q constant, W/m2).
+void add_face_load(const FaceGeometry& g, double q, double* F);
+// int N_a dA for each node (weights for splitting nodal quantities between faces).
+void face_shape_integrals(const FaceGeometry& g, double* integrals);
+
+}  // namespace hearth
