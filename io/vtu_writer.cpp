@@ -1,0 +1,117 @@
+// VTK unstructured grid assembly and XML writing.
+#include "io/vtu_writer.hpp"
+
+#include <vtkCellArray.h>
+#include <vtkCellData.h>
+#include <vtkCellType.h>
+#include <vtkDoubleArray.h>
+#include <vtkFieldData.h>
+#include <vtkIdTypeArray.h>
+#include <vtkIntArray.h>
+#include <vtkPointData.h>
+#include <vtkPoints.h>
+#include <vtkSmartPointer.h>
+#include <vtkStringArray.h>
+#include <vtkUnstructuredGrid.h>
+#include <vtkXMLUnstructuredGridWriter.h>
+
+#include <stdexcept>
+
+#include "io/atomic_file.hpp"
+
+namespace hearth {
+
+namespace {
+template <class T>
+using Ptr = vtkSmartPointer<T>;
+
+Ptr<vtkDoubleArray> vector_array(const char* name, const std::vector<double>& values) {
+  auto array = Ptr<vtkDoubleArray>::New();
+  array->SetName(name);
+  array->SetNumberOfComponents(3);
+  array->SetNumberOfTuples(static_cast<vtkIdType>(values.size() / 3));
+  std::copy(values.begin(), values.end(), array->GetPointer(0));
+  return array;
+}
+}  // namespace
+
+void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units& units, const VtuFields& fields) {
+  auto grid = Ptr<vtkUnstructuredGrid>::New();
+  auto points = Ptr<vtkPoints>::New();
+  points->SetDataTypeToDouble();
+  points->SetNumberOfPoints(static_cast<vtkIdType>(mesh.n_nodes()));
+  const double scale = 1.0 / units.metres_per_length();
+  for (std::size_t i = 0; i < mesh.n_nodes(); ++i)
+    points->SetPoint(static_cast<vtkIdType>(i), mesh.coords[3 * i] * scale, mesh.coords[3 * i + 1] * scale,
+                     mesh.coords[3 * i + 2] * scale);
+  grid->SetPoints(points);
+
+  // Our node order is VTK's (vertices, then edges 01 12 02 03 13 23), so no permutation.
+  const int npe = mesh.nodes_per_tet();
+  auto offsets = Ptr<vtkIdTypeArray>::New();
+  auto connectivity = Ptr<vtkIdTypeArray>::New();
+  offsets->SetNumberOfValues(static_cast<vtkIdType>(mesh.n_tets() + 1));
+  connectivity->SetNumberOfValues(static_cast<vtkIdType>(mesh.tet_nodes.size()));
+  for (std::size_t e = 0; e <= mesh.n_tets(); ++e) offsets->SetValue(static_cast<vtkIdType>(e), vtkIdType(e) * npe);
+  for (std::size_t k = 0; k < mesh.tet_nodes.size(); ++k) connectivity->SetValue(static_cast<vtkIdType>(k), mesh.tet_nodes[k]);
+  auto cells = Ptr<vtkCellArray>::New();
+  cells->SetData(offsets, connectivity);
+  grid->SetCells(mesh.order == 2 ? VTK_QUADRATIC_TETRA : VTK_TETRA, cells);
+
+  auto region = Ptr<vtkIntArray>::New();
+  region->SetName("region");
+  region->SetNumberOfValues(static_cast<vtkIdType>(mesh.n_tets()));
+  for (std::size_t e = 0; e < mesh.n_tets(); ++e)
+    region->SetValue(static_cast<vtkIdType>(e), mesh.regions[mesh.tet_region[e]].tag);
+  grid->GetCellData()->AddArray(region);
+
+  auto names = Ptr<vtkStringArray>::New();
+  names->SetName("region_names");
+  auto tags = Ptr<vtkIntArray>::New();
+  tags->SetName("region_tags");
+  for (const auto& r : mesh.regions) {
+    names->InsertNextValue(r.name);
+    tags->InsertNextValue(r.tag);
+  }
+  grid->GetFieldData()->AddArray(names);
+  grid->GetFieldData()->AddArray(tags);
+  auto unit_names = Ptr<vtkStringArray>::New();
+  unit_names->SetName("units");
+  unit_names->InsertNextValue("length=" + units.length);
+  unit_names->InsertNextValue("temperature=" + units.temperature);
+  unit_names->InsertNextValue("heat_flux=W/m2");
+  grid->GetFieldData()->AddArray(unit_names);
+
+  if (fields.temperature) {
+    auto t = Ptr<vtkDoubleArray>::New();
+    t->SetName("temperature");
+    t->SetNumberOfValues(static_cast<vtkIdType>(mesh.n_nodes()));
+    for (std::size_t i = 0; i < mesh.n_nodes(); ++i)
+      t->SetValue(static_cast<vtkIdType>(i), units.from_kelvin((*fields.temperature)[i]));
+    grid->GetPointData()->AddArray(t);
+    grid->GetPointData()->SetActiveScalars("temperature");
+  }
+  if (fields.nodal_flux) grid->GetPointData()->AddArray(vector_array("heat_flux", *fields.nodal_flux));
+  if (fields.cell_flux) grid->GetCellData()->AddArray(vector_array("heat_flux", *fields.cell_flux));
+  if (fields.quality) {
+    auto q = Ptr<vtkDoubleArray>::New();
+    q->SetName("quality");
+    q->SetNumberOfValues(static_cast<vtkIdType>(mesh.n_tets()));
+    for (std::size_t e = 0; e < mesh.n_tets(); ++e)
+      q->SetValue(static_cast<vtkIdType>(e), e < mesh.tet_quality.size() ? mesh.tet_quality[e] : 0.0);
+    grid->GetCellData()->AddArray(q);
+  }
+
+  write_atomically(path, [&](const std::filesystem::path& temporary) {
+    auto writer = Ptr<vtkXMLUnstructuredGridWriter>::New();
+    writer->SetFileName(temporary.c_str());
+    writer->SetInputData(grid);
+    writer->SetDataModeToAppended();
+    writer->EncodeAppendedDataOff();
+    writer->SetCompressorTypeToZLib();
+    writer->SetHeaderTypeToUInt64();
+    if (writer->Write() != 1) throw std::runtime_error("VTK could not write " + path.string());
+  });
+}
+
+}  // namespace hearth
