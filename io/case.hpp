@@ -27,7 +27,10 @@ struct Place {
   std::string file;  // as the user gave it
   int line = 0;      // 1-based; 0 when not from the file (defaults, --set)
   std::string key;   // dotted path, e.g. "boundaries.cold_face.convection"
-  std::string str() const;  // "case.yaml:12: boundaries.cold_face"
+  std::string set_by;  // the KEY of the --set KEY=VALUE that gave this value; empty if from the file
+  // "case.yaml:12: boundaries.cold_face"; "--set mesh.size" for a value from --set;
+  // "case.yaml: mesh.size" when there is no line (a default).
+  std::string str() const;
 };
 
 struct MaterialSpec {
@@ -74,6 +77,18 @@ struct SolverSpec {
   int nonlinear_max_iterations = 30;
 };
 
+// Transient settings. Read and checked, but analysis.type transient is not supported by
+// this build yet, so nothing uses them so far.
+struct TransientSpec {
+  double duration = 0.0;                      // s, > 0
+  double time_step = 0.0;                     // s, initial (or fixed) step, > 0
+  std::string method = "bdf2";                // "bdf2" | "backward_euler"
+  bool adaptive = true;
+  double step_tolerance = 0.1;                // K per step (a difference: no offset)
+  std::optional<double> initial_temperature;  // K
+  std::vector<double> output_times;           // s
+};
+
 struct Case {
   std::filesystem::path file;          // the case file, as given
   std::filesystem::path directory;     // its folder (absolute); relative paths resolve here
@@ -97,7 +112,8 @@ struct Case {
   std::map<std::string, Place> heat_source_places;
   std::map<std::string, BoundarySpec> boundaries;
 
-  std::string analysis_type = "steady";
+  std::string analysis_type = "steady";      // "steady" (only; "transient" is refused for now)
+  TransientSpec transient;
   SolverSpec solver;
   std::vector<ProbeSpec> probes;
   std::vector<LineSpec> lines;

@@ -1,0 +1,655 @@
+// Case-file reader: YAML (format version 1) -> validated Case in SI units and kelvin.
+//
+// Three steps, in order: parse the file; apply --set overrides to the YAML tree;
+// check every key against the schema table (io/case_schema.*) and then build the
+// Case, converting lengths to metres and temperatures to kelvin exactly once.
+#include "io/case_file.hpp"
+
+#include <yaml-cpp/yaml.h>
+
+#include <cmath>
+#include <fstream>
+#include <map>
+#include <sstream>
+
+#include "io/case_schema.hpp"
+#include "io/input_error.hpp"
+#include "io/text_distance.hpp"
+
+namespace hearth {
+
+namespace fs = std::filesystem;
+
+namespace {
+
+// One key of a YAML map with its value; the key node carries the line.
+struct Entry {
+  std::string name;
+  YAML::Node key;
+  YAML::Node value;
+};
+
+std::string join(const std::vector<std::string>& words, const std::string& separator = ", ") {
+  std::string text;
+  for (const std::string& word : words) text += (text.empty() ? "" : separator) + word;
+  return text;
+}
+
+std::string dotted(const std::string& parent, const std::string& name) {
+  return parent.empty() ? name : parent + "." + name;
+}
+
+std::string suggestion(const std::string& word, const std::vector<std::string>& candidates) {
+  const std::optional<std::string> nearest = nearest_word(word, candidates);
+  return nearest ? "did you mean '" + *nearest + "'?" : "";
+}
+
+bool contains(const std::vector<std::string>& words, const std::string& word) {
+  for (const std::string& w : words)
+    if (w == word) return true;
+  return false;
+}
+
+// What the reader knows while checking: the file (for places), which keys came from
+// --set, and the case's units (for messages and conversion).
+struct Reader {
+  std::string file;                           // as the user gave it
+  std::map<std::string, std::string> set_by;  // dotted key -> the --set KEY that made it
+  Units units;
+
+  Place place(const YAML::Node& key_node, const std::string& key) const {
+    Place p;
+    p.file = file;
+    p.key = key;
+    const auto override_key = set_by.find(key);
+    if (override_key != set_by.end()) {
+      p.set_by = override_key->second;
+      return p;
+    }
+    const YAML::Mark mark = key_node.Mark();
+    p.line = mark.is_null() ? 0 : mark.line + 1;
+    return p;
+  }
+
+  [[noreturn]] void fail(const Place& where, const std::string& what) const {
+    const std::string prefix = where.str();
+    throw InputError(prefix.empty() ? what : prefix + ": " + what);
+  }
+
+  // The unit a schema entry's value is written in, for messages.
+  std::string unit_of(const KeySpec& spec) const {
+    if (spec.unit == "length") return units.length;
+    if (spec.unit == "temperature") return units.temperature;
+    return spec.unit;
+  }
+
+  // "a number > 0 (W/(m K))": what a key expects, for messages.
+  std::string expected(const KeySpec& spec) const {
+    std::string text;
+    switch (spec.kind) {
+      case KeyKind::number: text = "a number"; break;
+      case KeyKind::integer: text = "a whole number"; break;
+      case KeyKind::boolean: text = "true or false"; break;
+      case KeyKind::text: text = "a name or text"; break;
+      case KeyKind::choice: text = "one of " + join(split_choices(spec.choices)); break;
+      case KeyKind::path: text = "a file or folder name"; break;
+      case KeyKind::point: text = "a point [x, y, z]"; break;
+      case KeyKind::number_list: text = "a list of numbers [a, b, ...]"; break;
+      case KeyKind::section: text = "keys under it"; break;
+      case KeyKind::names: text = "name: value entries under it"; break;
+    }
+    const std::string range = spec.range.str();
+    if (!range.empty() && spec.kind != KeyKind::choice) text += " " + range;
+    const std::string unit = unit_of(spec);
+    if (!unit.empty()) text += " (" + unit + ")";
+    return text;
+  }
+};
+
+// The entries of a map in file order; a null node (a key with nothing under it) has none.
+std::vector<Entry> entries(const Reader& reader, const YAML::Node& map, const Place& where) {
+  std::vector<Entry> list;
+  if (!map.IsMap()) return list;
+  for (const auto& item : map) {
+    if (!item.first.IsScalar())
+      reader.fail(where, "a key must be a plain name, not a list or map");
+    list.push_back({item.first.Scalar(), item.first, item.second});
+  }
+  return list;
+}
+
+// The value of `name` in `map`, if present. `map` is a map or null (checked before).
+std::optional<Entry> find_entry(const YAML::Node& map, const std::string& name) {
+  if (!map.IsMap()) return std::nullopt;
+  for (const auto& item : map)
+    if (item.first.IsScalar() && item.first.Scalar() == name)
+      return Entry{name, item.first, item.second};
+  return std::nullopt;
+}
+
+// The value of `name` in `map`; null if absent (never yaml-cpp's invalid node).
+YAML::Node child(const YAML::Node& map, const std::string& name) {
+  const std::optional<Entry> entry = find_entry(map, name);
+  return entry ? entry->value : YAML::Node();
+}
+
+// ---------------------------------------------------------------------------------
+// Step 1: read and parse the file.
+
+YAML::Node parse_file(const fs::path& path) {
+  const std::string file = path.string();
+  std::error_code error;
+  if (!fs::exists(path, error))
+    throw InputError(file + ": the case file does not exist (looked for " +
+                     fs::absolute(path, error).string() + ")");
+  if (fs::is_directory(path, error))
+    throw InputError(file + ": is a folder; give the case file (a .yaml file) inside it");
+  std::ifstream stream(path, std::ios::binary);
+  if (!stream) throw InputError(file + ": the case file cannot be opened for reading");
+  std::ostringstream text;
+  text << stream.rdbuf();
+  try {
+    return YAML::Load(text.str());
+  } catch (const YAML::ParserException& e) {
+    const bool tabs = text.str().find('\t') != std::string::npos;
+    throw InputError(file + ":" + std::to_string(e.mark.line + 1) + ":" +
+                     std::to_string(e.mark.column + 1) + ": YAML syntax error: " + e.msg +
+                     "; check the indentation, the ':' after each key and the brackets here or just above" +
+                     (tabs ? " (the file contains tabs: YAML indents with spaces only)" : ""));
+  }
+}
+
+// ---------------------------------------------------------------------------------
+// Step 2: --set KEY=VALUE overrides, applied to the tree before any check.
+
+std::vector<std::string> split_key(const std::string& key) {
+  std::vector<std::string> parts;
+  std::size_t start = 0;
+  while (true) {
+    const std::size_t dot = key.find('.', start);
+    parts.push_back(key.substr(start, dot == std::string::npos ? std::string::npos : dot - start));
+    if (dot == std::string::npos) break;
+    start = dot + 1;
+  }
+  return parts;
+}
+
+// The schema pattern of a dotted path ("boundaries.*.convection"), or "" if unknown.
+std::string pattern_of(const std::vector<std::string>& parts) {
+  std::string pattern;
+  for (const std::string& part : parts) {
+    if (find_key_spec(dotted(pattern, part)))
+      pattern = dotted(pattern, part);
+    else if (find_key_spec(dotted(pattern, "*")))
+      pattern = dotted(pattern, "*");
+    else
+      return "";
+  }
+  return pattern;
+}
+
+// The override's value as YAML: a scalar or a flow list ("[0, 0, 0.1]"); anything
+// that does not parse as one of those is kept as the text it is.
+YAML::Node override_value(const std::string& text) {
+  try {
+    YAML::Node value = YAML::Load(text);
+    if (value.IsScalar() || value.IsSequence() || value.IsNull()) return value;
+  } catch (const YAML::Exception&) {
+  }
+  return YAML::Node(text);
+}
+
+void apply_override(Reader& reader, YAML::Node& root, const std::string& text) {
+  const std::size_t equals = text.find('=');
+  if (equals == std::string::npos || equals == 0)
+    throw InputError("--set " + text + ": expected KEY=VALUE with KEY a dotted path, e.g. --set mesh.size=0.01");
+  const std::string key = text.substr(0, equals);
+  const std::vector<std::string> parts = split_key(key);
+  for (const std::string& part : parts)
+    if (part.empty())
+      throw InputError("--set " + key + ": empty part in the dotted key; write e.g. --set mesh.size=0.01");
+
+  YAML::Node node = root;
+  std::string path;
+  for (std::size_t i = 0; i + 1 < parts.size(); ++i) {
+    path = dotted(path, parts[i]);
+    YAML::Node child = node[parts[i]];
+    if (!child.IsDefined() || child.IsNull()) {
+      node[parts[i]] = YAML::Node(YAML::NodeType::Map);
+      if (!reader.set_by.count(path)) reader.set_by[path] = key;
+    } else if (!child.IsMap()) {
+      throw InputError("--set " + key + ": " + path +
+                       " holds a value, not keys, so it has no '" + parts[i + 1] +
+                       "'; KEY must be the dotted path of a value, e.g. --set mesh.size=0.01");
+    }
+    node.reset(node[parts[i]]);
+  }
+  const YAML::Node existing = node[parts.back()];
+  if (existing.IsDefined() && existing.IsMap()) {
+    const KeySpec* spec = find_key_spec(pattern_of(parts));
+    if (!spec || spec->kind == KeyKind::section || spec->kind == KeyKind::names) {
+      std::vector<std::string> names;
+      for (const auto& item : existing)
+        if (item.first.IsScalar()) names.push_back(key + "." + item.first.Scalar());
+      throw InputError("--set " + key + ": is a group of keys, not a value; set one of its values" +
+                       (names.empty() ? std::string() : ", e.g. " + names.front()));
+    }
+  }
+  node[parts.back()] = override_value(text.substr(equals + 1));
+  reader.set_by[key] = key;
+}
+
+// ---------------------------------------------------------------------------------
+// Step 3a: check the tree against the schema: known keys, kinds, ranges, choices,
+// required keys, features this build does not have yet.
+
+void check_value(const Reader& reader, const Entry& entry, const std::string& key,
+                 const KeySpec& spec);
+
+std::string describe_scalar(const YAML::Node& value) {
+  if (value.IsScalar()) return "'" + value.Scalar() + "'";
+  if (value.IsSequence()) return "a list";
+  if (value.IsMap()) return "keys";
+  return "nothing";
+}
+
+// A section (fixed keys) or a names map (keys the user chooses).
+void check_map(const Reader& reader, const YAML::Node& map, const Place& where,
+               const std::string& key, const std::string& pattern, KeyKind kind, bool required) {
+  if (!map.IsNull() && !map.IsMap())
+    reader.fail(where, "expected " + std::string(kind == KeyKind::names ? "name: value entries" : "keys") +
+                           " under it, found " + describe_scalar(map));
+  std::vector<std::string> allowed;
+  for (const KeySpec* child : child_key_specs(pattern)) allowed.push_back(last_key_part(child->key));
+
+  std::map<std::string, int> seen;  // name -> line of its first appearance
+  for (const Entry& entry : entries(reader, map, where)) {
+    const std::string child_key = dotted(key, entry.name);
+    const Place child_place = reader.place(entry.key, child_key);
+    if (seen.count(entry.name))
+      reader.fail(child_place, "'" + entry.name + "' is given twice (first at line " +
+                                   std::to_string(seen[entry.name]) + "); keep one");
+    seen[entry.name] = child_place.line;
+
+    const std::string child_pattern = dotted(pattern, kind == KeyKind::names ? "*" : entry.name);
+    const KeySpec* spec = find_key_spec(child_pattern);
+    if (!spec) {
+      Place bad = child_place;
+      bad.key = key;
+      const std::string hint = suggestion(entry.name, allowed);
+      reader.fail(bad, "'" + entry.name + "' is not a key; " +
+                           (hint.empty() ? "allowed keys here: " + join(allowed) : hint));
+    }
+    check_value(reader, entry, child_key, *spec);
+  }
+
+  if (kind == KeyKind::section) {
+    for (const KeySpec* child : child_key_specs(pattern)) {
+      const std::string name = last_key_part(child->key);
+      if (!child->required || seen.count(name)) continue;
+      Place missing = where;
+      missing.key = dotted(key, name);
+      if (child->kind == KeyKind::section) {
+        std::vector<std::string> needed;
+        for (const KeySpec* grandchild : child_key_specs(child->key))
+          if (grandchild->required) needed.push_back(last_key_part(grandchild->key));
+        reader.fail(missing, "required section is missing (" + child->doc + "); it needs " +
+                                 join(needed, " and "));
+      }
+      if (child->kind == KeyKind::names)
+        reader.fail(missing, "required section is missing; give at least one entry (" + child->doc + ")");
+      reader.fail(missing, "required key is missing; give " + child->doc + ", " + reader.expected(*child));
+    }
+  } else if (required && seen.empty()) {
+    reader.fail(where, "is empty; give at least one entry (" + find_key_spec(pattern)->doc + ")");
+  }
+}
+
+double number_or_fail(const Reader& reader, const YAML::Node& value, const Place& where,
+                      const KeySpec& spec) {
+  double x = 0.0;
+  if (!value.IsScalar() || !YAML::convert<double>::decode(value, x))
+    reader.fail(where, describe_scalar(value) + " is not a number; expected " + reader.expected(spec));
+  if (!std::isfinite(x))
+    reader.fail(where, describe_scalar(value) + " is not a finite number; expected " + reader.expected(spec));
+  if (!spec.range.contains(x))
+    reader.fail(where, value.Scalar() + " is not allowed; must be " + spec.range.str() +
+                           (reader.unit_of(spec).empty() ? "" : " (" + reader.unit_of(spec) + ")"));
+  return x;
+}
+
+// A number given as a map ({vs_temperature: ...}) or a list (a table).
+void check_number_form(const Reader& reader, const YAML::Node& value, const Place& where,
+                       const KeySpec& spec) {
+  const std::vector<std::string> later = split_choices(spec.not_yet);
+  const std::string name = last_key_part(spec.key) == "*" ? "this value" : last_key_part(spec.key);
+  const std::string fix = "; give a constant, " + reader.expected(spec);
+  if (value.IsSequence()) {
+    if (contains(later, "table"))
+      reader.fail(where, name + " as a table of values is not supported by this version of hearth yet" + fix);
+    reader.fail(where, "a list is not allowed here; expected " + reader.expected(spec));
+  }
+  std::vector<std::string> forms;
+  for (const std::string& form : later)
+    if (form != "table") forms.push_back(form);
+  // A form may bring companion keys ({principal: ..., axis_1: ..., axis_2: ...}): the
+  // form's own key decides.
+  const std::vector<Entry> items = entries(reader, value, where);
+  for (const Entry& item : items)
+    if (contains(forms, item.name))
+      reader.fail(where, name + " as {" + item.name + ": ...} is not supported by this version of hearth yet" + fix);
+  for (const Entry& item : items) {
+    const std::string hint = suggestion(item.name, forms);
+    reader.fail(where, "'" + item.name + "' is not a form of " + name + "; " +
+                           (hint.empty() ? "expected " + reader.expected(spec) : hint));
+  }
+  reader.fail(where, "expected " + reader.expected(spec) + ", found keys");
+}
+
+void check_value(const Reader& reader, const Entry& entry, const std::string& key,
+                 const KeySpec& spec) {
+  const Place where = reader.place(entry.key, key);
+  const YAML::Node& value = entry.value;
+  if (spec.not_yet == "*")
+    reader.fail(where, last_key_part(key) + " (" + spec.doc +
+                           ") is not supported by this version of hearth yet; remove it for now");
+
+  switch (spec.kind) {
+    case KeyKind::section:
+    case KeyKind::names:
+      check_map(reader, value, where, key, spec.key, spec.kind, spec.required);
+      return;
+    default:
+      break;
+  }
+  if (value.IsNull())
+    reader.fail(where, "has no value; expected " + reader.expected(spec));
+
+  switch (spec.kind) {
+    case KeyKind::number:
+      if (value.IsMap() || value.IsSequence()) check_number_form(reader, value, where, spec);
+      number_or_fail(reader, value, where, spec);
+      return;
+    case KeyKind::integer: {
+      long long n = 0;
+      if (!value.IsScalar() || !YAML::convert<long long>::decode(value, n))
+        reader.fail(where, describe_scalar(value) + " is not a whole number; expected " + reader.expected(spec));
+      if (!spec.range.contains(static_cast<double>(n)))
+        reader.fail(where, value.Scalar() + " is not allowed; must be " + spec.range.str());
+      return;
+    }
+    case KeyKind::boolean: {
+      bool b = false;
+      if (!value.IsScalar() || !YAML::convert<bool>::decode(value, b))
+        reader.fail(where, describe_scalar(value) + " is not true or false");
+      return;
+    }
+    case KeyKind::choice: {
+      const std::vector<std::string> choices = split_choices(spec.choices);
+      if (!value.IsScalar())
+        reader.fail(where, "expected one of " + join(choices) + ", found " + describe_scalar(value));
+      const std::string& text = value.Scalar();
+      const std::vector<std::string> later = split_choices(spec.not_yet);
+      if (contains(later, text)) {
+        std::vector<std::string> now;
+        for (const std::string& choice : choices)
+          if (!contains(later, choice)) now.push_back(choice);
+        reader.fail(where, "'" + text + "' is not supported by this version of hearth yet; allowed now: " + join(now));
+      }
+      if (!contains(choices, text)) {
+        const std::string hint = suggestion(text, choices);
+        reader.fail(where, "'" + text + "' is not allowed; allowed: " + join(choices) +
+                               (hint.empty() ? "" : "; " + hint));
+      }
+      return;
+    }
+    case KeyKind::text:
+    case KeyKind::path:
+      if (!value.IsScalar() || value.Scalar().empty())
+        reader.fail(where, "expected " + reader.expected(spec) + ", found " + describe_scalar(value));
+      return;
+    case KeyKind::point:
+      if (!value.IsSequence() || value.size() != 3)
+        reader.fail(where, "expected a point [x, y, z] (" + reader.unit_of(spec) + "), found " +
+                               (value.IsSequence() ? std::to_string(value.size()) + " values" : describe_scalar(value)));
+      for (const auto& coordinate : value) number_or_fail(reader, coordinate, where, spec);
+      return;
+    case KeyKind::number_list:
+      if (!value.IsSequence())
+        reader.fail(where, "expected a list [a, b, ...] (" + reader.unit_of(spec) + "), found " + describe_scalar(value));
+      for (const auto& item : value) number_or_fail(reader, item, where, spec);
+      return;
+    case KeyKind::section:
+    case KeyKind::names:
+      return;
+  }
+}
+
+// The units, read before the check so that messages can name them. Values that are
+// not valid choices are left at the default; the check reports them.
+Units peek_units(const YAML::Node& root) {
+  Units units;
+  const YAML::Node section = child(root, "units");
+  if (!section.IsMap()) return units;
+  const YAML::Node length = child(section, "length"), temperature = child(section, "temperature");
+  if (length.IsScalar() && contains(split_choices(find_key_spec("units.length")->choices), length.Scalar()))
+    units.length = length.Scalar();
+  if (temperature.IsScalar() &&
+      contains(split_choices(find_key_spec("units.temperature")->choices), temperature.Scalar()))
+    units.temperature = temperature.Scalar();
+  return units;
+}
+
+// ---------------------------------------------------------------------------------
+// Step 3b: build the Case from the checked tree. Absent keys take the schema default.
+
+// The value of `name` in `map`, else the schema default of `pattern` (undefined if none).
+YAML::Node value_or_default(const YAML::Node& map, const std::string& name, const std::string& pattern) {
+  if (const std::optional<Entry> entry = find_entry(map, name)) return entry->value;
+  const KeySpec* spec = find_key_spec(pattern);
+  if (spec && !spec->default_value.empty()) return YAML::Node(spec->default_value);
+  return YAML::Node(YAML::NodeType::Undefined);
+}
+
+// Path resolved against the case file's folder.
+fs::path resolve(const fs::path& directory, const std::string& text) {
+  const fs::path given(text);
+  return (given.is_absolute() ? given : directory / given).lexically_normal();
+}
+
+double to_metres(const Units& units, const YAML::Node& value) {
+  return value.as<double>() * units.metres_per_length();
+}
+
+std::array<double, 3> point_in_metres(const Units& units, const YAML::Node& value) {
+  return {to_metres(units, value[0]), to_metres(units, value[1]), to_metres(units, value[2])};
+}
+
+double to_kelvin(const Reader& reader, const YAML::Node& value, const Place& where) {
+  const double t = reader.units.to_kelvin(value.as<double>());
+  if (t < 0.0)
+    reader.fail(where, value.Scalar() + " " + reader.units.temperature +
+                           " is below absolute zero (" + (reader.units.temperature == "K" ? "0 K" : "-273.15 degC") +
+                           "); temperatures are in " + reader.units.temperature + " (units.temperature)");
+  return t;
+}
+
+std::vector<std::string> names_of(const std::map<std::string, MaterialSpec>& materials) {
+  std::vector<std::string> names;
+  for (const auto& item : materials) names.push_back(item.first);
+  return names;
+}
+
+void read_geometry_and_mesh(const Reader& reader, const YAML::Node& root, Case& c) {
+  const YAML::Node geometry = child(root, "geometry");
+  const Entry file = *find_entry(geometry, "file");
+  c.geometry_place = reader.place(file.key, "geometry.file");
+  c.geometry_file = resolve(c.directory, file.value.Scalar());
+  std::string extension = c.geometry_file.extension().string();
+  for (char& ch : extension) ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
+  const std::vector<std::string> types = {".geo", ".step", ".stp", ".brep", ".msh"};
+  if (!contains(types, extension))
+    reader.fail(c.geometry_place, "'" + file.value.Scalar() + "' is not a known geometry type; allowed: " +
+                                      join(types) + " (Gmsh script, CAD file, or mesh)");
+  std::error_code error;
+  if (!fs::is_regular_file(c.geometry_file, error))
+    reader.fail(c.geometry_place, "'" + file.value.Scalar() + "' does not exist (looked for " +
+                                      c.geometry_file.string() + "); the path is relative to the case file's folder");
+
+  const YAML::Node mesh = child(root, "mesh");
+  c.mesh_size = to_metres(c.units, value_or_default(mesh, "size", "mesh.size"));
+  c.mesh_order = value_or_default(mesh, "order", "mesh.order").as<int>();
+  c.mesh_refinements = value_or_default(mesh, "refinements", "mesh.refinements").as<int>();
+  if (const std::optional<Entry> local = find_entry(mesh, "local_sizes")) {
+    for (const Entry& entry : entries(reader, local->value, Place{})) {
+      c.local_sizes[entry.name] = to_metres(c.units, entry.value);
+      c.local_size_places[entry.name] = reader.place(entry.key, "mesh.local_sizes." + entry.name);
+    }
+  }
+}
+
+void read_materials_and_regions(const Reader& reader, const YAML::Node& root, Case& c) {
+  for (const Entry& entry : entries(reader, child(root, "materials"), Place{})) {
+    const std::string key = "materials." + entry.name;
+    MaterialSpec material;
+    material.name = entry.name;
+    material.place = reader.place(entry.key, key);
+    material.conductivity = child(entry.value, "conductivity").as<double>();
+    if (const auto density = find_entry(entry.value, "density")) material.density = density->value.as<double>();
+    if (const auto heat = find_entry(entry.value, "specific_heat")) material.specific_heat = heat->value.as<double>();
+    if (const auto limit = find_entry(entry.value, "max_service_temperature"))
+      material.max_service_temperature =
+          to_kelvin(reader, limit->value, reader.place(limit->key, key + ".max_service_temperature"));
+    c.materials[entry.name] = material;
+  }
+
+  for (const Entry& entry : entries(reader, child(root, "regions"), Place{})) {
+    const Place where = reader.place(entry.key, "regions." + entry.name);
+    const std::string& material = entry.value.Scalar();
+    if (!c.materials.count(material)) {
+      const std::vector<std::string> defined = names_of(c.materials);
+      const std::string hint = suggestion(material, defined);
+      reader.fail(where, "material '" + material + "' is not defined under materials; defined: " +
+                             join(defined) + (hint.empty() ? "" : "; " + hint));
+    }
+    c.regions[entry.name] = material;
+    c.region_places[entry.name] = where;
+  }
+
+  for (const Entry& entry : entries(reader, child(root, "heat_sources"), Place{})) {
+    const Place where = reader.place(entry.key, "heat_sources." + entry.name);
+    if (!c.regions.count(entry.name)) {
+      std::vector<std::string> regions;
+      for (const auto& item : c.regions) regions.push_back(item.first);
+      const std::string hint = suggestion(entry.name, regions);
+      reader.fail(where, "'" + entry.name + "' is not a region; a heat source names a volume listed under regions (" +
+                             join(regions) + ")" + (hint.empty() ? "" : "; " + hint));
+    }
+    c.heat_sources[entry.name] = entry.value.as<double>();
+    c.heat_source_places[entry.name] = where;
+  }
+}
+
+void read_boundaries(const Reader& reader, const YAML::Node& root, Case& c) {
+  for (const Entry& entry : entries(reader, child(root, "boundaries"), Place{})) {
+    const std::string key = "boundaries." + entry.name;
+    BoundarySpec boundary;
+    boundary.name = entry.name;
+    boundary.place = reader.place(entry.key, key);
+    if (const auto temperature = find_entry(entry.value, "temperature"))
+      boundary.temperature = to_kelvin(reader, temperature->value, reader.place(temperature->key, key + ".temperature"));
+    if (const auto flux = find_entry(entry.value, "heat_flux")) boundary.heat_flux = flux->value.as<double>();
+    if (const auto convection = find_entry(entry.value, "convection")) {
+      const Entry ambient = *find_entry(convection->value, "ambient");
+      ConvectionSpec spec;
+      spec.coefficient = child(convection->value, "coefficient").as<double>();
+      spec.ambient = to_kelvin(reader, ambient.value, reader.place(ambient.key, key + ".convection.ambient"));
+      boundary.convection = spec;
+    }
+    if (boundary.temperature && (boundary.heat_flux || boundary.convection))
+      reader.fail(boundary.place, std::string("temperature excludes the other conditions; remove ") +
+                                      (boundary.heat_flux ? "heat_flux" : "convection") +
+                                      " or the temperature (heat_flux and convection may be combined)");
+    if (!boundary.temperature && !boundary.heat_flux && !boundary.convection)
+      reader.fail(boundary.place, "no condition given; give temperature, heat_flux or convection "
+                                  "(a surface not listed under boundaries is insulated)");
+    c.boundaries[entry.name] = boundary;
+  }
+}
+
+void read_analysis_and_solver(const Reader& reader, const YAML::Node& root, Case& c) {
+  const YAML::Node analysis = child(root, "analysis");
+  c.analysis_type = value_or_default(analysis, "type", "analysis.type").Scalar();
+  TransientSpec& transient = c.transient;
+  if (const auto duration = find_entry(analysis, "duration")) transient.duration = duration->value.as<double>();
+  if (const auto step = find_entry(analysis, "time_step")) transient.time_step = step->value.as<double>();
+  const YAML::Node stepping = child(analysis, "time_stepping");
+  transient.method = value_or_default(stepping, "method", "analysis.time_stepping.method").Scalar();
+  transient.adaptive = value_or_default(stepping, "adaptive", "analysis.time_stepping.adaptive").as<bool>();
+  transient.step_tolerance = value_or_default(stepping, "tolerance", "analysis.time_stepping.tolerance").as<double>();
+  if (const auto initial = find_entry(analysis, "initial_temperature"))
+    transient.initial_temperature =
+        to_kelvin(reader, initial->value, reader.place(initial->key, "analysis.initial_temperature"));
+  if (const auto times = find_entry(analysis, "output_times"))
+    for (const auto& time : times->value) transient.output_times.push_back(time.as<double>());
+
+  const YAML::Node solver = child(root, "solver");
+  c.solver.linear = value_or_default(solver, "linear", "solver.linear").Scalar();
+  c.solver.tolerance = value_or_default(solver, "tolerance", "solver.tolerance").as<double>();
+  const YAML::Node nonlinear = child(solver, "nonlinear");
+  c.solver.nonlinear_tolerance = value_or_default(nonlinear, "tolerance", "solver.nonlinear.tolerance").as<double>();
+  c.solver.nonlinear_max_iterations =
+      value_or_default(nonlinear, "max_iterations", "solver.nonlinear.max_iterations").as<int>();
+}
+
+void read_probes_lines_output(const Reader& reader, const YAML::Node& root, Case& c) {
+  for (const Entry& entry : entries(reader, child(root, "probes"), Place{}))
+    c.probes.push_back({entry.name, point_in_metres(c.units, entry.value),
+                        reader.place(entry.key, "probes." + entry.name)});
+
+  for (const Entry& entry : entries(reader, child(root, "lines"), Place{})) {
+    LineSpec line;
+    line.name = entry.name;
+    line.place = reader.place(entry.key, "lines." + entry.name);
+    line.from = point_in_metres(c.units, child(entry.value, "from"));
+    line.to = point_in_metres(c.units, child(entry.value, "to"));
+    line.points = value_or_default(entry.value, "points", "lines.*.points").as<int>();
+    c.lines.push_back(line);
+  }
+
+  const YAML::Node output = child(root, "output");
+  c.output_directory = resolve(c.directory, value_or_default(output, "directory", "output.directory").Scalar());
+}
+
+}  // namespace
+
+Case read_case_file(const fs::path& path, const std::vector<std::string>& overrides) {
+  Reader reader;
+  reader.file = path.string();
+
+  YAML::Node root = parse_file(path);
+  if (root.IsNull())
+    throw InputError(reader.file + ": the case file is empty; it needs at least geometry, mesh, materials and regions");
+  if (!root.IsMap())
+    throw InputError(reader.file + ":1: expected keys at the top level (geometry:, mesh:, ...), found " +
+                     describe_scalar(root));
+  for (const std::string& text : overrides) apply_override(reader, root, text);
+
+  reader.units = peek_units(root);
+  check_map(reader, root, Place{reader.file, 0, "", ""}, "", "", KeyKind::section, true);
+
+  Case c;
+  c.file = path;
+  c.directory = fs::absolute(path).parent_path().lexically_normal();
+  c.version = value_or_default(root, "version", "version").as<int>();
+  if (const auto title = find_entry(root, "title")) c.title = title->value.Scalar();
+  c.units = reader.units;
+  read_geometry_and_mesh(reader, root, c);
+  read_materials_and_regions(reader, root, c);
+  read_boundaries(reader, root, c);
+  read_analysis_and_solver(reader, root, c);
+  read_probes_lines_output(reader, root, c);
+  return c;
+}
+
+}  // namespace hearth
