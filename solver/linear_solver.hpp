@@ -18,7 +18,7 @@ struct LinearSolverSettings {
   int max_iterations = 1000;
   // automatic: direct up to this many unknowns, multigrid above (see docs/methods.md
   // for the measurements behind the number).
-  std::int64_t direct_limit = 40000;
+  std::int64_t direct_limit = 20000;
 };
 
 enum class SolveStatus { converged, not_converged, breakdown };

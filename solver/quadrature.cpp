@@ -2,8 +2,6 @@
 #include "solver/quadrature.hpp"
 
 #include <cmath>
-#include <map>
-#include <mutex>
 #include <stdexcept>
 
 namespace hearth {
@@ -80,28 +78,29 @@ std::vector<QuadraturePoint> make_triangle_rule(int degree) {
   return rule;
 }
 
+constexpr int max_degree = 16;
+
+// All rules up to max_degree, built once (thread-safe static initialisation); lookups in
+// assembly loops then cost an index, no lock.
 template <class Make>
-const std::vector<QuadraturePoint>& cached(std::map<int, std::vector<QuadraturePoint>>& cache,
-                                           int degree, Make make) {
-  static std::mutex mutex;
-  std::lock_guard<std::mutex> lock(mutex);
-  auto it = cache.find(degree);
-  if (it == cache.end()) it = cache.emplace(degree, make(degree)).first;
-  return it->second;
+std::vector<std::vector<QuadraturePoint>> all_rules(Make make) {
+  std::vector<std::vector<QuadraturePoint>> rules;
+  for (int degree = 0; degree <= max_degree; ++degree) rules.push_back(make(degree));
+  return rules;
 }
 
 }  // namespace
 
 const std::vector<QuadraturePoint>& tet_rule(int degree) {
-  static std::map<int, std::vector<QuadraturePoint>> cache;
-  if (degree < 0 || degree > 30) throw std::invalid_argument("tet_rule: degree out of range");
-  return cached(cache, degree, make_tet_rule);
+  static const auto rules = all_rules(make_tet_rule);
+  if (degree < 0 || degree > max_degree) throw std::invalid_argument("tet_rule: degree out of range");
+  return rules[degree];
 }
 
 const std::vector<QuadraturePoint>& triangle_rule(int degree) {
-  static std::map<int, std::vector<QuadraturePoint>> cache;
-  if (degree < 0 || degree > 30) throw std::invalid_argument("triangle_rule: degree out of range");
-  return cached(cache, degree, make_triangle_rule);
+  static const auto rules = all_rules(make_triangle_rule);
+  if (degree < 0 || degree > max_degree) throw std::invalid_argument("triangle_rule: degree out of range");
+  return rules[degree];
 }
 
 }  // namespace hearth

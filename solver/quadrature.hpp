@@ -15,7 +15,7 @@ struct QuadraturePoint {
 
 // Rule integrating every polynomial of total degree <= `degree` exactly.
 // Degrees 1 and 2 use the classical compact rules (1 and 4 points in the tet, 1 and 3
-// in the triangle); higher degrees use conical (collapsed) Gauss-Legendre products.
+// in the triangle); degrees 3 to 16 use conical (collapsed) Gauss-Legendre products.
 const std::vector<QuadraturePoint>& tet_rule(int degree);
 const std::vector<QuadraturePoint>& triangle_rule(int degree);
 

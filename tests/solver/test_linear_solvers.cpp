@@ -1,0 +1,91 @@
+// The direct and multigrid solvers on one problem; symmetry of the assembled matrix.
+// Contract check shared by every solver variant: same known problem, same answer,
+// inputs unchanged.
+#include "verification_support.hpp"
+
+#include <cmath>
+
+#include "solver/assembler.hpp"
+
+namespace hearth::testing {
+namespace {
+
+// A layered block with a conductivity contrast of 1000, a source and convection: no
+// closed form needed, the check is agreement (common practice, no source).
+const char* layered_block = R"(SetFactory("OpenCASCADE");
+Box(1) = {0, 0, 0, 0.1, 0.2, 0.2};
+Box(2) = {0.1, 0, 0, 0.1, 0.2, 0.2};
+v() = BooleanFragments{ Volume{1, 2}; Delete; }{};
+eps = 1e-6;
+Physical Volume("dense") = {Volume In BoundingBox{-eps, -eps, -eps, 0.1 + eps, 0.2 + eps, 0.2 + eps}};
+Physical Volume("board") = {Volume In BoundingBox{0.1 - eps, -eps, -eps, 0.2 + eps, 0.2 + eps, 0.2 + eps}};
+Physical Surface("hot") = {Surface In BoundingBox{-eps, -eps, -eps, eps, 0.2 + eps, 0.2 + eps}};
+Physical Surface("cold") = {Surface In BoundingBox{0.2 - eps, -eps, -eps, 0.2 + eps, 0.2 + eps, 0.2 + eps}};
+)";
+
+class SolverAgreement : public ::testing::TestWithParam<int> {};
+
+TEST_P(SolverAgreement, DirectAndMultigridGiveTheSameTemperatures) {
+  const int order = GetParam();
+  const Mesh mesh = mesh_script("agree.geo", layered_block, 0.025, order);
+  ThermalProblem p = problem_for(mesh, {{"dense", 40.0}, {"board", 0.04}}, {{"dense", 2e4}});
+  condition(mesh, p, "hot").temperature = 900 + celsius;
+  condition(mesh, p, "cold").convection = Convection{12, 25 + celsius};
+  const ThermalProblem before = p;
+  const Solved direct = solve(mesh, p, LinearSolverKind::direct, 1e-12);
+  const Solved amg = solve(mesh, p, LinearSolverKind::iterative, 1e-12);
+  EXPECT_EQ(direct.solution.linear.solver, "cholmod");
+  EXPECT_EQ(amg.solution.linear.solver, "boomeramg-pcg");
+  EXPECT_GT(amg.solution.linear.iterations, 0);
+  double diff = 0, norm = 0;
+  for (std::size_t i = 0; i < mesh.n_nodes(); ++i) {
+    diff = std::max(diff, std::abs(direct.solution.temperature[i] - amg.solution.temperature[i]));
+    norm = std::max(norm, std::abs(direct.solution.temperature[i]));
+  }
+  EXPECT_LT(diff / norm, 1e-8);
+  EXPECT_NEAR(direct.heat_rate(mesh, "hot"), amg.heat_rate(mesh, "hot"), 1e-8 * std::abs(direct.heat_rate(mesh, "hot")));
+  // Energy balance closes to the solver tolerance for both.
+  EXPECT_LT(std::abs(direct.results.balance.relative_imbalance), 1e-9);
+  EXPECT_LT(std::abs(amg.results.balance.relative_imbalance), 1e-9);
+  // Inputs unchanged.
+  EXPECT_EQ(before.boundaries.size(), p.boundaries.size());
+  EXPECT_EQ(*p.boundaries[boundary_index(mesh, "hot")].temperature, 900 + celsius);
+}
+
+TEST_P(SolverAgreement, AssembledMatrixIsSymmetricWithPositiveDiagonal) {
+  const int order = GetParam();
+  const Mesh mesh = mesh_script("sym.geo", layered_block, 0.04, order);
+  ThermalProblem p = problem_for(mesh, {{"dense", 40.0}, {"board", 0.04}});
+  condition(mesh, p, "hot").temperature = 900 + celsius;
+  condition(mesh, p, "cold").convection = Convection{12, 25 + celsius};
+  const DofMap dofs = make_dof_map(mesh, p);
+  const Assembler assembler(mesh, dofs, 2);
+  CsrMatrix A;
+  std::vector<double> b;
+  assembler.assemble(p, A, b);
+  auto entry = [&](std::int32_t r, std::int32_t c) {
+    for (std::int64_t k = A.row_ptr[r]; k < A.row_ptr[r + 1]; ++k)
+      if (A.col[k] == c) return A.val[k];
+    return 0.0;
+  };
+  double max_asym = 0, max_entry = 0;
+  for (std::int32_t r = 0; r < A.n; ++r)
+    for (std::int64_t k = A.row_ptr[r]; k < A.row_ptr[r + 1]; ++k) {
+      max_asym = std::max(max_asym, std::abs(A.val[k] - entry(A.col[k], r)));
+      max_entry = std::max(max_entry, std::abs(A.val[k]));
+      if (A.col[k] == r) EXPECT_GT(A.val[k], 0.0);
+    }
+  EXPECT_LT(max_asym, 1e-13 * max_entry);
+  // The same assembly with one thread gives the same matrix (row ownership, no races).
+  const Assembler serial(mesh, dofs, 1);
+  CsrMatrix A1;
+  std::vector<double> b1;
+  serial.assemble(p, A1, b1);
+  for (std::size_t k = 0; k < A.val.size(); ++k) ASSERT_NEAR(A.val[k], A1.val[k], 1e-14 * max_entry);
+}
+
+INSTANTIATE_TEST_SUITE_P(LinearAndQuadratic, SolverAgreement, ::testing::Values(1, 2),
+                         [](const auto& info) { return info.param == 1 ? "P1" : "P2"; });
+
+}  // namespace
+}  // namespace hearth::testing

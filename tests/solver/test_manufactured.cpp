@@ -1,0 +1,89 @@
+// Manufactured solution on the unit cube (C25): T* = sin(pi x) sin(pi y) sin(pi z),
+// f = 3 pi^2 k T*, T = 0 on all faces, on a mesh refined uniformly three times (every
+// tetrahedron split into eight, h halved each time). Expected L2 orders p + 1 and H1
+// orders p. Sources: Ciarlet, The Finite Element Method for Elliptic Problems (1978);
+// Brenner & Scott, The Mathematical Theory of Finite Element Methods (2008); method of
+// manufactured solutions: Roache, Verification and Validation in Computational Science
+// and Engineering (1998) [all from memory].
+#include "verification_support.hpp"
+
+#include <cmath>
+
+#include "solver/assembler.hpp"
+#include "solver/quadrature.hpp"
+
+namespace hearth::testing {
+namespace {
+
+const double pi = std::acos(-1.0);
+
+double exact(const Point& x) { return std::sin(pi * x[0]) * std::sin(pi * x[1]) * std::sin(pi * x[2]); }
+Point exact_gradient(const Point& x) {
+  const double sx = std::sin(pi * x[0]), sy = std::sin(pi * x[1]), sz = std::sin(pi * x[2]);
+  const double cx = std::cos(pi * x[0]), cy = std::cos(pi * x[1]), cz = std::cos(pi * x[2]);
+  return {pi * cx * sy * sz, pi * sx * cy * sz, pi * sx * sy * cz};
+}
+
+const char* unit_cube = R"(SetFactory("OpenCASCADE");
+Box(1) = {0, 0, 0, 1, 1, 1};
+Physical Volume("cube") = {1};
+Physical Surface("faces") = {1, 2, 3, 4, 5, 6};
+)";
+
+struct Errors {
+  double l2 = 0.0, h1 = 0.0;
+};
+
+// Errors integrated with a degree-8 rule (>= 2p + 2 for p <= 2, as the check requires).
+Errors solve_and_measure(int order, int refinements) {
+  const Mesh mesh = mesh_script("c25.geo", unit_cube, 0.25, order, refinements);
+  ThermalProblem p = problem_for(mesh, {{"cube", 1.0}});
+  condition(mesh, p, "faces").temperature = 0.0;
+  p.source_field = [](const Point& x) { return 3 * pi * pi * exact(x); };
+  p.source_field_degree = order + 4;
+  LinearSolverSettings settings;
+  settings.tolerance = 1e-12;
+  const SteadySolution s = solve_steady(mesh, p, settings);
+  EXPECT_TRUE(s.converged());
+  Errors e;
+  double N[max_tet_nodes], grad[max_tet_nodes][3];
+  for (std::size_t el = 0; el < mesh.n_tets(); ++el) {
+    const TetGeometry g = tet_geometry(mesh, el);
+    for (const auto& q : tet_rule(8)) {
+      tet_shape_values(order, q.xi, N);
+      const double w = q.weight * tet_physical_gradients(g, q.xi, grad);
+      double t = 0.0;
+      Point gt{0, 0, 0};
+      for (int a = 0; a < mesh.nodes_per_tet(); ++a) {
+        const double ta = s.temperature[mesh.tet(el)[a]];
+        t += N[a] * ta;
+        for (int d = 0; d < 3; ++d) gt[d] += grad[a][d] * ta;
+      }
+      const Point x = tet_map(g, q.xi);
+      const Point ge = exact_gradient(x);
+      e.l2 += w * (t - exact(x)) * (t - exact(x));
+      for (int d = 0; d < 3; ++d) e.h1 += w * (gt[d] - ge[d]) * (gt[d] - ge[d]);
+    }
+  }
+  e.l2 = std::sqrt(e.l2) / 0.3535533906;  // |T*|_L2 = (1/2)^(3/2)
+  e.h1 = std::sqrt(e.h1) / 1.9238247452;  // |T*|_H1 = sqrt(3) pi (1/2)^(3/2)
+  return e;
+}
+
+void expect_orders(int order, int finest) {
+  std::vector<Errors> errors;
+  for (int level = 0; level <= finest; ++level) errors.push_back(solve_and_measure(order, level));
+  for (std::size_t k = 1; k < errors.size(); ++k)
+    std::printf("P%d level %zu: L2 %.3e (order %.2f), H1 %.3e (order %.2f)\n", order, k, errors[k].l2,
+                std::log2(errors[k - 1].l2 / errors[k].l2), errors[k].h1, std::log2(errors[k - 1].h1 / errors[k].h1));
+  const Errors& fine = errors[finest];
+  const Errors& medium = errors[finest - 1];
+  EXPECT_NEAR(std::log2(medium.l2 / fine.l2), order + 1.0, 0.15);
+  EXPECT_NEAR(std::log2(medium.h1 / fine.h1), order, 0.15);
+}
+
+TEST(ManufacturedSolution, P1ConvergesAtSecondOrderInL2) { expect_orders(1, 3); }
+TEST(ManufacturedSolution, P2ConvergesAtThirdOrderInL2) { expect_orders(2, 3); }
+
+}  // namespace
+}  // namespace hearth::testing

@@ -1,0 +1,142 @@
+// hearth_bench: meshing, assembly and linear-solver figures on a unit box.
+//
+// The problem is the design's reference: unit conductivity, fixed temperature on one
+// face, uniform source, relative residual 1e-8. For each size it prints nodes, elements,
+// seconds for meshing, assembly, solver set-up and solve, iterations and the peak memory
+// of assembly + solve per unknown (Gmsh's own excluded: the peak is reset after meshing).
+//
+//   hearth_bench [--order 1|2] [--sizes 0.05,0.03,...] [--solvers direct,iterative]
+//                [--direct-limit N] [--repeat R]
+#include <omp.h>
+#include <unistd.h>
+
+#include <algorithm>
+#include <chrono>
+#include <cstdio>
+#include <cstring>
+#include <fstream>
+#include <sstream>
+#include <string>
+#include <vector>
+
+#include "mesh/gmsh_mesher.hpp"
+#include "solver/assembler.hpp"
+#include "solver/dof_map.hpp"
+#include "solver/linear_solver.hpp"
+
+namespace {
+
+using namespace hearth;
+using Clock = std::chrono::steady_clock;
+
+double seconds_since(Clock::time_point t0) { return std::chrono::duration<double>(Clock::now() - t0).count(); }
+
+// Resident-set figures of this process, from /proc/self/status (kB -> bytes).
+double status_bytes(const char* key) {
+  std::ifstream in("/proc/self/status");
+  std::string line;
+  while (std::getline(in, line))
+    if (line.rfind(key, 0) == 0) return std::stod(line.substr(std::strlen(key))) * 1024.0;
+  return 0.0;
+}
+void reset_peak_memory() { std::ofstream("/proc/self/clear_refs") << "5"; }
+
+std::vector<double> parse_list(const std::string& s) {
+  std::vector<double> v;
+  std::stringstream in(s);
+  std::string item;
+  while (std::getline(in, item, ',')) v.push_back(std::stod(item));
+  return v;
+}
+
+double median(std::vector<double> v) {
+  std::sort(v.begin(), v.end());
+  return v[v.size() / 2];
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+  int order = 1, repeat = 3;
+  std::vector<double> sizes = {0.08, 0.05, 0.03, 0.02, 0.0135};
+  std::vector<std::string> solvers = {"direct", "iterative"};
+  std::int64_t direct_limit = 250000;
+  for (int i = 1; i + 1 < argc; i += 2) {
+    const std::string key = argv[i], value = argv[i + 1];
+    if (key == "--order") order = std::stoi(value);
+    else if (key == "--sizes") sizes = parse_list(value);
+    else if (key == "--repeat") repeat = std::stoi(value);
+    else if (key == "--direct-limit") direct_limit = std::stoll(value);
+    else if (key == "--solvers") {
+      solvers.clear();
+      std::stringstream in(value);
+      std::string item;
+      while (std::getline(in, item, ',')) solvers.push_back(item);
+    } else {
+      std::fprintf(stderr, "hearth_bench: unknown option %s\n", key.c_str());
+      return 1;
+    }
+  }
+  const std::string script = std::string("/tmp/hearth_bench_box_") + std::to_string(::getpid()) + ".geo";
+  std::ofstream(script) << "SetFactory(\"OpenCASCADE\");\nBox(1) = {0, 0, 0, 1, 1, 1};\n"
+                           "Physical Volume(\"box\") = {1};\nPhysical Surface(\"fixed\") = {1};\n";
+  std::printf("hearth_bench: unit box, k = 1, T fixed on x = 0, uniform source, relative residual 1e-8, "
+              "P%d, %d threads, medians of %d\n",
+              order, omp_get_max_threads(), repeat);
+  std::printf("%8s %9s %9s %8s %8s | %-14s %8s %8s %8s %6s %10s\n", "size", "nodes", "elements", "mesh_s",
+              "assem_s", "solver", "setup_s", "solve_s", "total_s", "iters", "peak_B/dof");
+  for (const double size : sizes) {
+    MeshRequest request;
+    request.geometry_file = script;
+    request.size = size;
+    request.order = order;
+    const auto t_mesh = Clock::now();
+    const Mesh mesh = build_mesh(request);
+    const double mesh_seconds = seconds_since(t_mesh);
+
+    ThermalProblem problem;
+    problem.regions = {RegionProperties{"unit", 1.0, 1.0}};
+    problem.boundaries.resize(mesh.boundaries.size());
+    problem.boundaries[0].temperature = 0.0;
+    for (const auto& name : solvers) {
+      const bool direct = name == "direct";
+      const DofMap dofs = make_dof_map(mesh, problem);
+      if (direct && dofs.n_free() > direct_limit) {
+        std::printf("%8.4f %9zu %9zu %8.2f %8s | %-14s (skipped: %d unknowns > --direct-limit)\n", size, mesh.n_nodes(),
+                    mesh.n_tets(), mesh_seconds, "", "cholmod", dofs.n_free());
+        continue;
+      }
+      std::vector<double> assembly, setup, solve, peak;
+      int iterations = 0;
+      std::string solver_name;
+      for (int r = 0; r < repeat; ++r) {
+        reset_peak_memory();
+        const double baseline = status_bytes("VmRSS:");
+        const Assembler assembler(mesh, dofs);
+        CsrMatrix A;
+        std::vector<double> b;
+        const auto t_assembly = Clock::now();
+        assembler.assemble(problem, A, b);
+        assembly.push_back(seconds_since(t_assembly));
+        LinearSolverSettings settings;
+        settings.kind = direct ? LinearSolverKind::direct : LinearSolverKind::iterative;
+        settings.tolerance = 1e-8;
+        auto linear = make_linear_solver(settings, dofs.n_free());
+        linear->setup(A);
+        std::vector<double> x(dofs.n_free(), 0.0);
+        const LinearSolveReport report = linear->solve(b, x);
+        setup.push_back(report.setup_seconds);
+        solve.push_back(report.solve_seconds);
+        iterations = report.iterations;
+        solver_name = report.solver;
+        peak.push_back((status_bytes("VmHWM:") - baseline) / dofs.n_free());
+      }
+      std::printf("%8.4f %9zu %9zu %8.2f %8.3f | %-14s %8.2f %8.2f %8.2f %6d %10.0f\n", size, mesh.n_nodes(),
+                  mesh.n_tets(), mesh_seconds, median(assembly), solver_name.c_str(), median(setup), median(solve),
+                  median(setup) + median(solve), iterations, median(peak));
+      std::fflush(stdout);
+    }
+  }
+  std::remove(script.c_str());
+  return 0;
+}

@@ -1,0 +1,270 @@
+// Stage functions shared by the run, check and mesh commands.
+#include "tools/driver/pipeline.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <set>
+#include <sstream>
+
+#include "io/case_file.hpp"
+#include "io/input_error.hpp"
+#include "mesh/gmsh_mesher.hpp"
+#include "solver/point_locator.hpp"
+
+namespace hearth {
+
+namespace {
+
+std::string join(const std::vector<std::string>& names) {
+  std::string s;
+  for (const auto& n : names) s += (s.empty() ? "" : ", ") + n;
+  return s.empty() ? "(none)" : s;
+}
+
+std::vector<std::string> names_of(const std::vector<NamedEntity>& entities) {
+  std::vector<std::string> names;
+  for (const auto& e : entities) names.push_back(e.name);
+  return names;
+}
+
+int index_of(const std::vector<NamedEntity>& entities, const std::string& name) {
+  for (std::size_t i = 0; i < entities.size(); ++i)
+    if (entities[i].name == name) return static_cast<int>(i);
+  return -1;
+}
+
+std::string fmt(const char* format, double value) {
+  char buffer[64];
+  std::snprintf(buffer, sizeof buffer, format, value);
+  return buffer;
+}
+
+}  // namespace
+
+Case load_case(const CommonOptions& options, const Progress& progress) {
+  Case c = read_case_file(options.case_path, options.sets);
+  progress.say("read " + options.case_path + (c.title.empty() ? "" : ": " + c.title));
+  return c;
+}
+
+Mesh mesh_case(const Case& c, int threads, const Progress& progress) {
+  MeshRequest request;
+  request.geometry_file = c.geometry_file;
+  request.length_unit = c.units.length;
+  request.size = c.mesh_size;
+  request.order = c.mesh_order;
+  request.local_sizes = c.local_sizes;
+  request.refinements = c.mesh_refinements;
+  request.threads = threads;
+  request.progress = [&progress](const std::string& line) { progress.say(line); };
+  return build_mesh(request);
+}
+
+void check_names_against_mesh(const Case& c, const Mesh& mesh) {
+  const std::string volumes = join(names_of(mesh.regions));
+  const std::string surfaces = join(names_of(mesh.boundaries));
+  for (const auto& [name, material] : c.regions)
+    if (index_of(mesh.regions, name) < 0)
+      throw InputError(c.region_places.at(name).str() + ": the geometry has no volume named '" + name +
+                       "'; its volumes are: " + volumes);
+  for (const auto& [name, value] : c.heat_sources)
+    if (index_of(mesh.regions, name) < 0)
+      throw InputError(c.heat_source_places.at(name).str() + ": the geometry has no volume named '" + name +
+                       "'; its volumes are: " + volumes);
+  for (const auto& [name, spec] : c.boundaries)
+    if (index_of(mesh.boundaries, name) < 0)
+      throw InputError(spec.place.str() + ": the geometry has no surface named '" + name +
+                       "'; its surfaces are: " + surfaces);
+  for (const auto& region : mesh.regions)
+    if (!c.regions.count(region.name)) {
+      Place where{c.file.string(), 0, "regions", ""};
+      if (!c.region_places.empty()) where.line = c.region_places.begin()->second.line;
+      throw InputError(where.str() + ": volume '" + region.name + "' has no material; add '" + region.name +
+                       ": <material>' under regions (the geometry's volumes are: " + volumes + ")");
+    }
+}
+
+ThermalProblem make_problem(const Case& c, const Mesh& mesh) {
+  ThermalProblem problem;
+  for (const auto& region : mesh.regions) {
+    const MaterialSpec& m = c.materials.at(c.regions.at(region.name));
+    RegionProperties p;
+    p.material = m.name;
+    p.conductivity = m.conductivity;
+    const auto source = c.heat_sources.find(region.name);
+    if (source != c.heat_sources.end()) p.heat_source = source->second;
+    problem.regions.push_back(p);
+  }
+  problem.boundaries.resize(mesh.boundaries.size());
+  for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) {
+    const auto it = c.boundaries.find(mesh.boundaries[b].name);
+    if (it == c.boundaries.end()) continue;
+    const BoundarySpec& spec = it->second;
+    BoundaryCondition& bc = problem.boundaries[b];
+    bc.temperature = spec.temperature;
+    bc.heat_flux = spec.heat_flux.value_or(0.0);
+    if (spec.convection) bc.convection = Convection{spec.convection->coefficient, spec.convection->ambient};
+  }
+  return problem;
+}
+
+LinearSolverSettings linear_settings(const Case& c) {
+  LinearSolverSettings s;
+  s.kind = c.solver.linear == "direct"      ? LinearSolverKind::direct
+           : c.solver.linear == "iterative" ? LinearSolverKind::iterative
+                                            : LinearSolverKind::automatic;
+  s.tolerance = c.solver.tolerance;
+  return s;
+}
+
+std::vector<std::string> describe_conditions(const Mesh& mesh, const ThermalProblem& problem) {
+  std::vector<std::string> out;
+  for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) {
+    const BoundaryCondition& bc = problem.boundaries[b];
+    std::string d;
+    if (bc.is_fixed()) d = "temperature";
+    if (bc.convection) d = "convection";
+    if (bc.heat_flux != 0.0) d += d.empty() ? "heat_flux" : "+heat_flux";
+    out.push_back(d.empty() ? "insulated" : d);
+  }
+  return out;
+}
+
+std::vector<std::string> insulated_boundaries(const Case& c, const Mesh& mesh) {
+  std::vector<std::string> out;
+  for (const auto& b : mesh.boundaries)
+    if (!c.boundaries.count(b.name)) out.push_back(b.name);
+  return out;
+}
+
+std::vector<ProbeRecord> sample_probes(const Case& c, const Mesh& mesh, const std::vector<double>& temperature) {
+  std::vector<ProbeRecord> out;
+  if (c.probes.empty()) return out;
+  const PointLocator locator(mesh);
+  for (const auto& probe : c.probes) {
+    const auto hit = locator.locate(probe.point);
+    if (!hit) {
+      const double s = 1.0 / c.units.metres_per_length();
+      std::ostringstream where;
+      where << "[" << probe.point[0] * s << ", " << probe.point[1] * s << ", " << probe.point[2] * s << "]";
+      throw InputError(probe.place.str() + ": probe '" + probe.name + "' at " + where.str() + " " + c.units.length +
+                       " lies outside the body; move it inside the geometry");
+    }
+    out.push_back({probe.name, probe.point, locator.interpolate(*hit, temperature)});
+  }
+  return out;
+}
+
+std::vector<std::vector<LineSample>> sample_lines(const Case& c, const Mesh& mesh,
+                                                  const std::vector<double>& temperature,
+                                                  std::vector<std::string>& warnings) {
+  std::vector<std::vector<LineSample>> out;
+  if (c.lines.empty()) return out;
+  const PointLocator locator(mesh);
+  for (const auto& line : c.lines) {
+    std::vector<LineSample> samples;
+    const double length = std::sqrt(std::pow(line.to[0] - line.from[0], 2) + std::pow(line.to[1] - line.from[1], 2) +
+                                    std::pow(line.to[2] - line.from[2], 2));
+    int outside = 0;
+    for (int k = 0; k < line.points; ++k) {
+      const double s = line.points > 1 ? double(k) / (line.points - 1) : 0.0;
+      LineSample sample;
+      for (int d = 0; d < 3; ++d) sample.point[d] = line.from[d] + s * (line.to[d] - line.from[d]);
+      sample.distance = s * length;
+      if (const auto hit = locator.locate(sample.point))
+        sample.temperature = locator.interpolate(*hit, temperature);
+      else
+        ++outside;
+      samples.push_back(sample);
+    }
+    if (outside > 0)
+      warnings.push_back("line '" + line.name + "': " + std::to_string(outside) + " of " +
+                         std::to_string(line.points) + " points lie outside the body and are left empty");
+    out.push_back(std::move(samples));
+  }
+  return out;
+}
+
+std::vector<ServiceRecord> service_checks(const Case& c, const Mesh& mesh, const ThermalProblem& problem,
+                                          const std::vector<double>& temperature, std::vector<std::string>& warnings) {
+  std::vector<ServiceRecord> out;
+  for (const auto& [name, material] : c.materials) {
+    if (!material.max_service_temperature) continue;
+    ServiceRecord record{name, -1.0, {}, *material.max_service_temperature};
+    for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
+      if (problem.regions[mesh.tet_region[e]].material != name) continue;
+      for (int a = 0; a < mesh.nodes_per_tet(); ++a) {
+        const std::int32_t i = mesh.tet(e)[a];
+        if (temperature[i] > record.max) {
+          record.max = temperature[i];
+          record.location = mesh.node(i);
+        }
+      }
+    }
+    if (record.max < 0) continue;  // material not used by any volume
+    if (record.max > record.limit) {
+      const double s = 1.0 / c.units.metres_per_length();
+      std::ostringstream w;
+      w << "material '" << name << "' reaches " << fmt("%.1f", c.units.from_kelvin(record.max)) << " "
+        << c.units.temperature << ", " << fmt("%.1f", record.max - record.limit)
+        << " K above its max_service_temperature " << fmt("%.1f", c.units.from_kelvin(record.limit)) << " at ["
+        << record.location[0] * s << ", " << record.location[1] * s << ", " << record.location[2] * s << "] "
+        << c.units.length;
+      warnings.push_back(w.str());
+    }
+    out.push_back(record);
+  }
+  return out;
+}
+
+std::filesystem::path output_directory(const Case& c, const CommonOptions& options) {
+  namespace fs = std::filesystem;
+  fs::path out = options.out.empty() ? c.output_directory : fs::absolute(options.out);
+  out = fs::weakly_canonical(out);
+  // Swapping the folder in replaces it whole: it must not hold the inputs.
+  for (const fs::path& input : {fs::weakly_canonical(fs::absolute(c.file)), fs::weakly_canonical(c.geometry_file)}) {
+    const auto rel = input.lexically_relative(out);
+    if (!rel.empty() && *rel.begin() != "..")
+      throw InputError(std::string(options.out.empty() ? "output.directory" : "--out") + ": the output folder " +
+                       out.string() + " contains the input " + input.string() +
+                       " and would be replaced by the results; choose a folder of its own (e.g. results)");
+  }
+  return out;
+}
+
+void print_human_summary(const Case& c, const RunRecord& record, const std::vector<std::string>& insulated,
+                         const std::filesystem::path& where) {
+  const std::string unit = c.units.temperature == "degC" ? "degC" : "K";
+  std::fprintf(stderr, "\n%s\n", c.title.empty() ? c.file.filename().c_str() : c.title.c_str());
+  std::fprintf(stderr, "  mesh: %zu nodes, %zu elements (order %d), min quality %.3f; %lld unknowns, %s",
+               record.nodes, record.elements, record.order, record.min_quality, static_cast<long long>(record.dofs),
+               record.linear_solver.c_str());
+  if (record.linear_iterations) std::fprintf(stderr, " (%d iterations)", record.linear_iterations);
+  std::fprintf(stderr, "\n  %-24s %12s %12s %12s\n", "region", ("min " + unit).c_str(), ("mean " + unit).c_str(),
+               ("max " + unit).c_str());
+  for (const auto& r : record.results.regions)
+    std::fprintf(stderr, "  %-24s %12.2f %12.2f %12.2f\n", r.name.c_str(), c.units.from_kelvin(r.temperature.min),
+                 c.units.from_kelvin(r.temperature.mean), c.units.from_kelvin(r.temperature.max));
+  std::fprintf(stderr, "  %-24s %12s %12s %12s\n", "boundary", "heat rate W", "area m2", ("mean " + unit).c_str());
+  for (std::size_t b = 0; b < record.results.boundaries.size(); ++b) {
+    const auto& r = record.results.boundaries[b];
+    std::fprintf(stderr, "  %-24s %12.4g %12.4g %12.2f  %s%s\n", r.name.c_str(), r.heat_rate, r.area,
+                 c.units.from_kelvin(r.temperature.mean),
+                 b < record.boundary_conditions.size() ? record.boundary_conditions[b].c_str() : "",
+                 r.internal ? " (internal: + along its normal)" : "");
+  }
+  const auto& eb = record.results.balance;
+  std::fprintf(stderr, "  energy balance: in %.6g W, out %.6g W, sources %.6g W, relative imbalance %.2e\n",
+               eb.boundary_in, eb.boundary_out, eb.sources, eb.relative_imbalance);
+  for (const auto& p : record.probes)
+    std::fprintf(stderr, "  probe %-18s %12.2f %s\n", p.name.c_str(), c.units.from_kelvin(p.temperature), unit.c_str());
+  if (!insulated.empty()) std::fprintf(stderr, "  insulated (no condition given): %s\n", join(insulated).c_str());
+  if (record.min_quality > 0 && record.min_quality < 0.05)
+    std::fprintf(stderr, "  note: poor elements (min quality %.3f) can spoil local values\n", record.min_quality);
+  for (const auto& w : record.warnings) std::fprintf(stderr, "  warning: %s\n", w.c_str());
+  std::fprintf(stderr, "  results in %s\n", where.c_str());
+  std::fprintf(stderr, "  (engineering estimate: check against local codes and practice before use)\n");
+}
+
+}  // namespace hearth

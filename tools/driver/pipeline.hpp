@@ -1,0 +1,59 @@
+// The stages of a run as named functions: the commands read like a recipe of these.
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "io/case.hpp"
+#include "io/csv_writer.hpp"
+#include "io/run_record.hpp"
+#include "mesh/mesh.hpp"
+#include "solver/linear_solver.hpp"
+#include "solver/problem.hpp"
+#include "tools/driver/progress.hpp"
+
+namespace hearth {
+
+struct CommonOptions {
+  std::string case_path;
+  std::vector<std::string> sets;  // --set KEY=VALUE
+  std::string out;                // --out DIR (empty: output.directory)
+  int threads = 0;                // --threads N (0: all cores)
+  bool quiet = false;
+  bool summary_only = false;      // also print summary.json to stdout
+};
+
+Case load_case(const CommonOptions& options, const Progress& progress);
+Mesh mesh_case(const Case& c, int threads, const Progress& progress);
+
+// Every region and boundary named in the case exists in the mesh, and every volume has
+// a material; conditions that need an exterior surface are on one. Throws InputError
+// naming the case-file line and listing the names the geometry has.
+void check_names_against_mesh(const Case& c, const Mesh& mesh);
+
+ThermalProblem make_problem(const Case& c, const Mesh& mesh);
+LinearSolverSettings linear_settings(const Case& c);
+
+// Human description of each boundary's condition, e.g. "convection+heat_flux".
+std::vector<std::string> describe_conditions(const Mesh& mesh, const ThermalProblem& problem);
+// Names of the exterior boundaries left insulated (no entry in the case).
+std::vector<std::string> insulated_boundaries(const Case& c, const Mesh& mesh);
+
+// Probes (InputError for one outside the body) and lines (outside points left empty).
+std::vector<ProbeRecord> sample_probes(const Case& c, const Mesh& mesh, const std::vector<double>& temperature);
+std::vector<std::vector<LineSample>> sample_lines(const Case& c, const Mesh& mesh,
+                                                  const std::vector<double>& temperature,
+                                                  std::vector<std::string>& warnings);
+
+// Service-temperature records and warnings per material with a limit.
+std::vector<ServiceRecord> service_checks(const Case& c, const Mesh& mesh, const ThermalProblem& problem,
+                                          const std::vector<double>& temperature, std::vector<std::string>& warnings);
+
+// The output folder: --out, else output.directory. InputError if it would hold the inputs.
+std::filesystem::path output_directory(const Case& c, const CommonOptions& options);
+
+// The short human summary on stderr after a run.
+void print_human_summary(const Case& c, const RunRecord& record, const std::vector<std::string>& insulated,
+                         const std::filesystem::path& where);
+
+}  // namespace hearth

@@ -1,0 +1,116 @@
+// hearth run: read, mesh, solve, post-process, write; results staged then swapped in.
+#include <cstdio>
+#include <iostream>
+
+#include "io/input_error.hpp"
+#include "io/summary_json.hpp"
+#include "io/vtu_writer.hpp"
+#include "solver/post_processing.hpp"
+#include "solver/steady_solver.hpp"
+#include "tools/driver/commands.hpp"
+#include "tools/driver/errors.hpp"
+#include "tools/driver/output_directory.hpp"
+
+#ifndef HEARTH_VERSION
+#define HEARTH_VERSION "unknown"
+#endif
+
+namespace hearth {
+
+namespace {
+
+double min_quality(const Mesh& mesh) {
+  double q = mesh.tet_quality.empty() ? 0.0 : 1.0;
+  for (double v : mesh.tet_quality) q = std::min(q, v);
+  return q;
+}
+
+RunRecord start_record(const Case& c, const Mesh& mesh) {
+  RunRecord record;
+  record.title = c.title;
+  record.case_file = c.file.string();
+  record.hearth_version = HEARTH_VERSION;
+  record.nodes = mesh.n_nodes();
+  record.elements = mesh.n_tets();
+  record.order = mesh.order;
+  record.min_quality = min_quality(mesh);
+  record.blas = loaded_blas();
+  return record;
+}
+
+void write_results(const Case& c, const Mesh& mesh, const std::vector<double>& temperature, const RunRecord& record,
+                   const std::vector<std::vector<LineSample>>& lines, const std::filesystem::path& dir,
+                   const char* vtu_name, const CommonOptions& options) {
+  VtuFields fields;
+  fields.temperature = &temperature;
+  fields.nodal_flux = &record.results.nodal_flux;
+  fields.cell_flux = &record.results.cell_flux;
+  write_vtu(dir / vtu_name, mesh, c.units, fields);
+  for (std::size_t l = 0; l < lines.size(); ++l)
+    write_line_csv(dir / ("line_" + c.lines[l].name + ".csv"), lines[l], c.units);
+  if (!record.probes.empty()) {
+    std::vector<std::string> names;
+    std::vector<double> values;
+    for (const auto& p : record.probes) {
+      names.push_back(p.name);
+      values.push_back(p.temperature);
+    }
+    write_probes_csv(dir / "probes.csv", names, {{0.0, values}}, c.units);
+  }
+  const auto summary = summary_json(record, c.units);
+  write_summary(dir / "summary.json", summary);  // last: its presence marks a whole result
+  if (options.summary_only) std::cout << summary.dump(2) << std::endl;
+}
+
+}  // namespace
+
+int run_command(const CommonOptions& options) {
+  install_interrupt_handlers();
+  const Progress progress(options.quiet);
+  const Case c = load_case(options, progress);
+  const std::filesystem::path out = output_directory(c, options);
+  const Mesh mesh = mesh_case(c, options.threads, progress);
+  check_names_against_mesh(c, mesh);
+  check_interrupt("after meshing; nothing was written");
+  const ThermalProblem problem = make_problem(c, mesh);
+
+  RunRecord record = start_record(c, mesh);
+  SteadySolution solution;
+  try {
+    solution = solve_steady(mesh, problem, linear_settings(c), [&](const std::string& s) { progress.say(s); });
+  } catch (const std::invalid_argument& e) {
+    throw InputError(c.file.string() + ": boundaries: " + e.what());
+  }
+  check_interrupt("after the solve; nothing was written");
+  record.dofs = solution.dofs;
+  record.linear_solver = solution.linear.solver;
+  record.linear_iterations = solution.linear.iterations;
+  record.linear_relative_residual = solution.linear.relative_residual;
+  record.seconds = solution.seconds;
+  record.converged = solution.converged();
+  record.failure = solution.linear.message;
+  record.boundary_conditions = describe_conditions(mesh, problem);
+
+  record.results = post_process(mesh, problem, solution.temperature);
+  record.probes = sample_probes(c, mesh, solution.temperature);
+  const auto lines = sample_lines(c, mesh, solution.temperature, record.warnings);
+  record.service = service_checks(c, mesh, problem, solution.temperature, record.warnings);
+  const auto insulated = insulated_boundaries(c, mesh);
+  progress.say("post-processed heat rates, balance, probes and lines");
+
+  StagedDirectory staged(out);
+  write_results(c, mesh, solution.temperature, record, lines, staged.path(),
+                record.converged ? "temperature.vtu" : "temperature_unconverged.vtu", options);
+  check_interrupt("before results were put in place; the previous results are unchanged");
+  staged.commit();
+  if (!options.quiet) print_human_summary(c, record, insulated, out);
+  else
+    for (const auto& w : record.warnings) progress.always("warning: " + w);
+  if (!record.converged)
+    throw SolveFailed("the linear solve did not converge: " + record.failure +
+                      "; results marked unconverged are in " + out.string() +
+                      ". Try solver.linear: direct, or check for very large conductivity contrasts");
+  return exit_done;
+}
+
+}  // namespace hearth

@@ -1,0 +1,84 @@
+// hearth: command-line entry. Parses arguments, dispatches to a command, and maps
+// outcomes to exit statuses: 0 done, 1 bad input, 2 solve failed, 3 internal error,
+// 130/143 interrupted.
+#include <CLI/CLI.hpp>
+#include <omp.h>
+
+#include <cstdio>
+#include <exception>
+
+#include "io/input_error.hpp"
+#include "mesh/mesh_error.hpp"
+#include "tools/driver/commands.hpp"
+#include "tools/driver/errors.hpp"
+
+#ifndef HEARTH_VERSION
+#define HEARTH_VERSION "unknown"
+#endif
+
+namespace {
+
+void add_common(CLI::App* command, hearth::CommonOptions& options, bool with_out, bool with_run_flags) {
+  command->add_option("CASE", options.case_path, "case file (YAML)")->required();
+  command->add_option("--set", options.sets, "override a scalar key by its dotted path, e.g. mesh.size=0.01")
+      ->type_name("KEY=VALUE")
+      ->take_all()
+      ->allow_extra_args(false);
+  command->add_option("--threads", options.threads, "threads for meshing and assembly (default: all cores)")
+      ->check(CLI::PositiveNumber);
+  command->add_flag("--quiet", options.quiet, "no progress lines; warnings and errors only");
+  if (with_out) command->add_option("--out", options.out, "output folder (default: output.directory of the case)");
+  if (with_run_flags)
+    command->add_flag("--summary-only", options.summary_only, "also print summary.json to stdout");
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+  CLI::App app{"hearth " HEARTH_VERSION
+               ": steady heat conduction in 3D solids by finite elements.\n"
+               "Results are engineering estimates: have them checked by a qualified person against local codes "
+               "and practice."};
+  app.set_version_flag("--version", "hearth " HEARTH_VERSION);
+  app.require_subcommand(1);
+  hearth::CommonOptions options;
+  auto* run = app.add_subcommand("run", "mesh and solve a case; write temperature.vtu, summary.json, CSV files");
+  add_common(run, options, true, true);
+  auto* check = app.add_subcommand("check", "validate the case and its mesh, list names and counts; no solve");
+  add_common(check, options, false, false);
+  auto* mesh = app.add_subcommand("mesh", "mesh only: mesh.vtu with region and quality, mesh.json");
+  add_common(mesh, options, true, false);
+
+  try {
+    app.parse(argc, argv);
+  } catch (const CLI::ParseError& e) {
+    const int status = app.exit(e);
+    return status == 0 ? 0 : hearth::exit_bad_input;
+  }
+  if (options.threads > 0) omp_set_num_threads(options.threads);
+
+  try {
+    if (*run) return hearth::run_command(options);
+    if (*check) return hearth::check_command(options);
+    if (*mesh) return hearth::mesh_command(options);
+  } catch (const hearth::InputError& e) {
+    std::fprintf(stderr, "error: %s\n", e.what());
+    return hearth::exit_bad_input;
+  } catch (const hearth::MeshError& e) {
+    std::fprintf(stderr, "error: %s\n", e.what());
+    return hearth::exit_bad_input;
+  } catch (const hearth::SolveFailed& e) {
+    std::fprintf(stderr, "error: %s\n", e.what());
+    return hearth::exit_solve_failed;
+  } catch (const hearth::Interrupted& e) {
+    std::fprintf(stderr, "%s\n", e.what());
+    return e.status();
+  } catch (const std::bad_alloc&) {
+    std::fprintf(stderr, "internal error: out of memory; try a larger mesh.size or fewer elements\n");
+    return hearth::exit_internal;
+  } catch (const std::exception& e) {
+    std::fprintf(stderr, "internal error: %s\n", e.what());
+    return hearth::exit_internal;
+  }
+  return hearth::exit_internal;
+}
