@@ -1,0 +1,177 @@
+// Node renumbering: reverse Cuthill-McKee over the element graph.
+#include "mesh/renumber.hpp"
+
+#include <algorithm>
+#include <cstdlib>
+#include <numeric>
+#include <stdexcept>
+
+namespace hearth {
+namespace {
+
+// Node adjacency in compressed rows: the neighbours of node i are
+// neighbours[offsets[i] .. offsets[i+1]).
+struct NodeGraph {
+  std::vector<std::size_t> offsets;
+  std::vector<std::int32_t> neighbours;
+  std::size_t degree(std::int32_t i) const { return offsets[i + 1] - offsets[i]; }
+};
+
+NodeGraph build_node_graph(const Mesh& mesh) {
+  const std::size_t n_nodes = mesh.n_nodes();
+  const std::size_t per_tet = static_cast<std::size_t>(mesh.nodes_per_tet());
+  // Elements around each node (compressed rows).
+  std::vector<std::size_t> tet_offsets(n_nodes + 1, 0);
+  for (std::int32_t v : mesh.tet_nodes) ++tet_offsets[static_cast<std::size_t>(v) + 1];
+  std::partial_sum(tet_offsets.begin(), tet_offsets.end(), tet_offsets.begin());
+  std::vector<std::int32_t> node_tets(mesh.tet_nodes.size());
+  {
+    std::vector<std::size_t> fill(tet_offsets.begin(), tet_offsets.end() - 1);
+    for (std::size_t k = 0; k < mesh.tet_nodes.size(); ++k)
+      node_tets[fill[static_cast<std::size_t>(mesh.tet_nodes[k])]++] = static_cast<std::int32_t>(k / per_tet);
+  }
+  // Neighbours: the distinct other nodes of those elements, found with a marker.
+  NodeGraph graph;
+  graph.offsets.assign(n_nodes + 1, 0);
+  std::vector<std::int32_t> marker(n_nodes, -1);
+  for (int pass = 0; pass < 2; ++pass) {
+    std::size_t count = 0;
+    std::fill(marker.begin(), marker.end(), -1);
+    for (std::size_t i = 0; i < n_nodes; ++i) {
+      if (pass == 1) graph.offsets[i] = count;
+      marker[i] = static_cast<std::int32_t>(i);
+      for (std::size_t k = tet_offsets[i]; k < tet_offsets[i + 1]; ++k) {
+        const std::int32_t* t = mesh.tet(static_cast<std::size_t>(node_tets[k]));
+        for (std::size_t a = 0; a < per_tet; ++a) {
+          const std::int32_t j = t[a];
+          if (marker[j] == static_cast<std::int32_t>(i)) continue;
+          marker[j] = static_cast<std::int32_t>(i);
+          if (pass == 1) graph.neighbours[count] = j;
+          ++count;
+        }
+      }
+    }
+    if (pass == 0) graph.neighbours.resize(count);
+    else graph.offsets[n_nodes] = count;
+  }
+  return graph;
+}
+
+// Breadth-first level structure from `root` over unnumbered nodes of one component.
+// Fills `level` (stamped per call through `stamp`) and returns the nodes of the last
+// level and the number of levels.
+struct LastLevel {
+  std::vector<std::int32_t> nodes;
+  int depth = 0;
+};
+
+LastLevel last_level_from(const NodeGraph& graph, std::int32_t root, std::vector<int>& visit_stamp, int stamp,
+                          std::vector<std::int32_t>& queue) {
+  queue.clear();
+  queue.push_back(root);
+  visit_stamp[root] = stamp;
+  std::size_t level_begin = 0;
+  int depth = 0;
+  while (true) {
+    const std::size_t level_end = queue.size();
+    for (std::size_t q = level_begin; q < level_end; ++q) {
+      const std::int32_t i = queue[q];
+      for (std::size_t k = graph.offsets[i]; k < graph.offsets[i + 1]; ++k) {
+        const std::int32_t j = graph.neighbours[k];
+        if (visit_stamp[j] == stamp) continue;
+        visit_stamp[j] = stamp;
+        queue.push_back(j);
+      }
+    }
+    ++depth;
+    if (queue.size() == level_end) return {std::vector<std::int32_t>(queue.begin() + level_begin, queue.end()), depth};
+    level_begin = level_end;
+  }
+}
+
+// George and Liu: move to a smallest-degree node of the last level while the level
+// structure gets deeper.
+std::int32_t pseudo_peripheral_node(const NodeGraph& graph, std::int32_t start, std::vector<int>& visit_stamp,
+                                    int& stamp, std::vector<std::int32_t>& queue) {
+  std::int32_t root = start;
+  LastLevel last = last_level_from(graph, root, visit_stamp, ++stamp, queue);
+  for (int iteration = 0; iteration < 8; ++iteration) {
+    const std::int32_t candidate = *std::min_element(
+        last.nodes.begin(), last.nodes.end(),
+        [&](std::int32_t a, std::int32_t b) { return graph.degree(a) < graph.degree(b); });
+    LastLevel next = last_level_from(graph, candidate, visit_stamp, ++stamp, queue);
+    if (next.depth <= last.depth) break;
+    root = candidate;
+    last = std::move(next);
+  }
+  return root;
+}
+
+}  // namespace
+
+std::vector<std::int32_t> reverse_cuthill_mckee_order(const Mesh& mesh) {
+  const std::size_t n_nodes = mesh.n_nodes();
+  const NodeGraph graph = build_node_graph(mesh);
+  std::vector<std::int32_t> order;  // old numbers in Cuthill-McKee order
+  order.reserve(n_nodes);
+  std::vector<char> numbered(n_nodes, 0);
+  std::vector<int> visit_stamp(n_nodes, 0);
+  int stamp = 0;
+  std::vector<std::int32_t> queue, by_degree;
+  // Components are started in order of smallest-degree remaining node.
+  std::vector<std::int32_t> candidates(n_nodes);
+  std::iota(candidates.begin(), candidates.end(), 0);
+  std::stable_sort(candidates.begin(), candidates.end(),
+                   [&](std::int32_t a, std::int32_t b) { return graph.degree(a) < graph.degree(b); });
+  for (const std::int32_t seed : candidates) {
+    if (numbered[seed]) continue;
+    const std::int32_t root = pseudo_peripheral_node(graph, seed, visit_stamp, stamp, queue);
+    std::size_t head = order.size();
+    order.push_back(root);
+    numbered[root] = 1;
+    while (head < order.size()) {
+      const std::int32_t i = order[head++];
+      by_degree.clear();
+      for (std::size_t k = graph.offsets[i]; k < graph.offsets[i + 1]; ++k) {
+        const std::int32_t j = graph.neighbours[k];
+        if (!numbered[j]) {
+          numbered[j] = 1;
+          by_degree.push_back(j);
+        }
+      }
+      std::sort(by_degree.begin(), by_degree.end(), [&](std::int32_t a, std::int32_t b) {
+        return graph.degree(a) != graph.degree(b) ? graph.degree(a) < graph.degree(b) : a < b;
+      });
+      order.insert(order.end(), by_degree.begin(), by_degree.end());
+    }
+  }
+  std::vector<std::int32_t> new_number(n_nodes);
+  for (std::size_t k = 0; k < n_nodes; ++k) new_number[order[k]] = static_cast<std::int32_t>(n_nodes - 1 - k);
+  return new_number;
+}
+
+void apply_node_numbering(Mesh& mesh, const std::vector<std::int32_t>& new_number) {
+  const std::size_t n_nodes = mesh.n_nodes();
+  if (new_number.size() != n_nodes) throw std::invalid_argument("apply_node_numbering: size differs from n_nodes");
+  std::vector<double> coords(mesh.coords.size());
+  for (std::size_t i = 0; i < n_nodes; ++i)
+    for (int d = 0; d < 3; ++d) coords[3 * static_cast<std::size_t>(new_number[i]) + d] = mesh.coords[3 * i + d];
+  mesh.coords = std::move(coords);
+  for (std::int32_t& v : mesh.tet_nodes) v = new_number[v];
+  for (std::int32_t& v : mesh.face_nodes) v = new_number[v];
+}
+
+void renumber_reverse_cuthill_mckee(Mesh& mesh) { apply_node_numbering(mesh, reverse_cuthill_mckee_order(mesh)); }
+
+std::size_t node_bandwidth(const Mesh& mesh) {
+  std::size_t bandwidth = 0;
+  const int per_tet = mesh.nodes_per_tet();
+  for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
+    const std::int32_t* t = mesh.tet(e);
+    const auto [lo, hi] = std::minmax_element(t, t + per_tet);
+    bandwidth = std::max(bandwidth, static_cast<std::size_t>(*hi - *lo));
+  }
+  return bandwidth;
+}
+
+}  // namespace hearth
