@@ -396,20 +396,19 @@ void read_mesh_arrays(const std::string& file, GmshArrays& arrays) {
 }
 
 // A ready mesh keeps its elements: refined if asked, elevated to order 2 if asked;
-// 10-node tetrahedra stay so.
-void prepare_ready_mesh(GmshSession& session, const MeshRequest& request) {
+// 10-node tetrahedra stay so. Returns the order of the prepared mesh.
+int prepare_ready_mesh(GmshSession& session, const MeshRequest& request) {
   const std::string file = request.geometry_file.string();
   const int file_order = mesh_order(file);
+  const int order = std::max(file_order, request.order);
   session.guarded(file, [&] {
-    if (request.refinements > 0) {
-      if (file_order == 2) gmsh::model::mesh::setOrder(1);
-      for (int i = 0; i < request.refinements; ++i) gmsh::model::mesh::refine();
-      if (file_order == 2) gmsh::model::mesh::setOrder(2);
-    }
-    if (file_order == 1 && request.order == 2) gmsh::model::mesh::setOrder(2);
+    // refine() splits at the edge nodes and leaves 4-node tetrahedra.
+    for (int i = 0; i < request.refinements; ++i) gmsh::model::mesh::refine();
+    if (order == 2 && (file_order == 1 || request.refinements > 0)) gmsh::model::mesh::setOrder(2);
   });
   if (file_order == 2 && request.order == 1)
     session.report(request.geometry_file.filename().string() + " holds 10-node tetrahedra: kept at order 2");
+  return order;
 }
 
 void check_jacobians(const std::string& file, const Mesh& mesh) {
@@ -428,10 +427,15 @@ void check_jacobians(const std::string& file, const Mesh& mesh) {
                   (mesh.order == 2 ? ", or order 1" : ""));
 }
 
+struct GmshMeshes {
+  std::vector<Mesh> levels;
+  std::string algorithm;  // HXT, Delaunay or "read from file"
+};
+
 // Everything that needs Gmsh: load, name, size, generate (remeshing on one thread
-// where HXT's threads cracked the mesh) and convert. Returns the Mesh and the name of
-// the algorithm that made it.
-std::pair<Mesh, std::string> mesh_with_gmsh(const MeshRequest& request, GeometryKind kind) {
+// where HXT's threads cracked the mesh), convert; then `levels - 1` times: split
+// uniformly (on the curved geometry), back to the order, convert.
+GmshMeshes mesh_with_gmsh(const MeshRequest& request, GeometryKind kind, int levels) {
   const std::string file = request.geometry_file.string();
   const std::string short_name = request.geometry_file.filename().string();
   GmshSession session(request.progress);
@@ -443,35 +447,44 @@ std::pair<Mesh, std::string> mesh_with_gmsh(const MeshRequest& request, Geometry
     session.report(short_name + " is a ready mesh: local mesh sizes are ignored");
   if (kind != GeometryKind::ready_mesh) apply_sizes(session, request, arrays);
 
-  int threads = request.threads > 0 ? request.threads : 2;
-  std::string algorithm = "read from file";
-  while (true) {
-    if (kind == GeometryKind::ready_mesh) {
-      prepare_ready_mesh(session, request);
-    } else {
-      algorithm = generate_volume_mesh(session, request, threads);
-      session.guarded(file, [&] {
-        for (int i = 0; i < request.refinements; ++i) gmsh::model::mesh::refine();
-        if (request.order == 2) {
-          gmsh::option::setNumber("Mesh.SecondOrderLinear", 0);  // edge nodes on the curved geometry
-          gmsh::model::mesh::setOrder(2);
-        }
-      });
-    }
+  auto convert = [&] {
     session.guarded(file, [&] { read_mesh_arrays(file, arrays); });
     std::size_t dropped_faces = 0;
     Mesh mesh = mesh_from_gmsh_arrays(arrays, request.length_scale(), dropped_faces);
     if (dropped_faces > 0)
       session.report(std::to_string(dropped_faces) +
                      " boundary triangles lie on no tetrahedron (a named surface outside every volume): left out");
+    return mesh;
+  };
+
+  GmshMeshes result;
+  result.algorithm = "read from file";
+  int order = request.order;
+  int threads = request.threads > 0 ? request.threads : 2;
+  while (true) {
+    if (kind == GeometryKind::ready_mesh) {
+      order = prepare_ready_mesh(session, request);
+    } else {
+      result.algorithm = generate_volume_mesh(session, request, threads);
+      session.guarded(file, [&] {
+        gmsh::option::setNumber("Mesh.SecondOrderLinear", 0);  // edge nodes on the curved geometry
+        for (int i = 0; i < request.refinements; ++i) gmsh::model::mesh::refine();
+        if (order == 2) gmsh::model::mesh::setOrder(2);
+      });
+    }
+    Mesh mesh = convert();
     const std::size_t coincident = count_coincident_nodes(mesh);
-    if (coincident == 0) return {std::move(mesh), algorithm};
+    if (coincident == 0) {
+      result.levels.push_back(std::move(mesh));
+      break;
+    }
     const std::string found = std::to_string(coincident) + " nodes coincide with another node";
     if (kind == GeometryKind::ready_mesh) {
       session.report(short_name + ": " + found + ": the mesh is cracked there (heat does not cross)");
-      return {std::move(mesh), algorithm};
+      result.levels.push_back(std::move(mesh));
+      break;
     }
-    if (threads == 1 || algorithm != "HXT")
+    if (threads == 1 || result.algorithm != "HXT")
       throw MeshError(file + ": " + found + ": volumes touch without sharing their faces (fragment them, e.g. " +
                       "BooleanFragments in the script) or Gmsh's mesh is cracked (try a slightly different mesh size)");
     // Gmsh 4.8's HXT now and then inserts the same point twice when it runs on
@@ -481,14 +494,18 @@ std::pair<Mesh, std::string> mesh_with_gmsh(const MeshRequest& request, Geometry
     threads = 1;
     session.guarded(file, [] { gmsh::model::mesh::clear(); });
   }
+  for (int level = 1; level < levels; ++level) {
+    session.guarded(file, [&] {
+      gmsh::model::mesh::refine();
+      if (order == 2) gmsh::model::mesh::setOrder(2);
+    });
+    result.levels.push_back(convert());
+  }
+  return result;
 }
 
-}  // namespace
-
-Mesh build_mesh(const MeshRequest& request) {
-  const GeometryKind kind = check_request(request);
-  const Clock::time_point start = Clock::now();
-  auto [mesh, algorithm] = mesh_with_gmsh(request, kind);  // Gmsh is finalised here
+// Checks, quality figures and renumbering of a converted mesh.
+void finish_mesh(const MeshRequest& request, const std::string& algorithm, Clock::time_point start, Mesh& mesh) {
   auto report = [&](const std::string& line) {
     if (request.progress) request.progress(line);
   };
@@ -504,7 +521,19 @@ Mesh build_mesh(const MeshRequest& request) {
     report("renumbered nodes (reverse Cuthill-McKee): bandwidth " + std::to_string(before) + " -> " +
            std::to_string(node_bandwidth(mesh)));
   }
-  return mesh;
+}
+
+}  // namespace
+
+Mesh build_mesh(const MeshRequest& request) { return build_mesh_levels(request, 1).front(); }
+
+std::vector<Mesh> build_mesh_levels(const MeshRequest& request, int levels) {
+  if (levels < 1) throw MeshError("the number of mesh levels must be 1 or more, got " + std::to_string(levels));
+  const GeometryKind kind = check_request(request);
+  const Clock::time_point start = Clock::now();
+  GmshMeshes meshes = mesh_with_gmsh(request, kind, levels);  // Gmsh is finalised here
+  for (Mesh& mesh : meshes.levels) finish_mesh(request, meshes.algorithm, start, mesh);
+  return std::move(meshes.levels);
 }
 
 }  // namespace hearth

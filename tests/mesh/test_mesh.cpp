@@ -138,6 +138,39 @@ std::string error_of(const MeshRequest& request) {
   return "";
 }
 
+// Quarter of a cylindrical shell, inner radius 0.5, outer radius 1, height 0.5.
+const char* const kQuarterShell = R"(
+SetFactory("OpenCASCADE");
+Cylinder(1) = {0, 0, 0, 0, 0, 0.5, 1.0, Pi/2};
+Cylinder(2) = {0, 0, -1, 0, 0, 2.5, 0.5, Pi/2};
+BooleanDifference(3) = { Volume{1}; Delete; }{ Volume{2}; Delete; };
+)";
+
+// Checks that every edge node of the triangles on the two cylindrical faces of the
+// quarter shell lies on its cylinder (to 1e-9 relative); returns how many it checked.
+// A triangle is on a cylinder when its vertices are and it is not in one of the
+// planes z = 0, z = 0.5, x = 0, y = 0.
+std::size_t check_edge_nodes_on_cylinders(const Mesh& mesh) {
+  auto radius = [&](std::int32_t node) { return std::hypot(mesh.node(node)[0], mesh.node(node)[1]); };
+  std::size_t checked = 0;
+  for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
+    const std::int32_t* v = mesh.face(f);
+    bool in_plane = false;
+    for (int d = 0; d < 3; ++d)
+      in_plane = in_plane || (mesh.node(v[0])[d] == mesh.node(v[1])[d] && mesh.node(v[1])[d] == mesh.node(v[2])[d]);
+    if (in_plane) continue;
+    for (double surface : {1.0, 0.5}) {
+      if (!std::all_of(v, v + 3, [&](std::int32_t n) { return std::fabs(radius(n) - surface) < 1e-9 * surface; }))
+        continue;
+      for (int k = 3; k < 6; ++k) {
+        EXPECT_NEAR(radius(v[k]), surface, 1e-9 * surface) << "face " << f << " node " << k;
+        ++checked;
+      }
+    }
+  }
+  return checked;
+}
+
 TEST(Quality, GammaIsOneForTheRegularTetAndZeroForAFlatOne) {
   const double s = 1.0 / std::sqrt(2.0);
   EXPECT_NEAR(tet_gamma({1, 0, -s}, {-1, 0, -s}, {0, 1, s}, {0, -1, s}), 1.0, 1e-14);
@@ -242,35 +275,10 @@ TEST(Mesher, OrderTwoStraightBoxHasEdgeNodesAtMidpointsInVtkOrder) {
 }
 
 TEST(Mesher, OrderTwoEdgeNodesFollowTheCurvedGeometry) {
-  // Quarter of a cylindrical shell, inner radius 0.5, outer radius 1, height 0.5.
   ScratchFolder folder;
-  const fs::path file = folder.write("shell.geo", R"(
-SetFactory("OpenCASCADE");
-Cylinder(1) = {0, 0, 0, 0, 0, 0.5, 1.0, Pi/2};
-Cylinder(2) = {0, 0, -1, 0, 0, 2.5, 0.5, Pi/2};
-BooleanDifference(3) = { Volume{1}; Delete; }{ Volume{2}; Delete; };
-)");
-  const Mesh mesh = build_mesh(request_for(file, 0.15, 2));
+  const Mesh mesh = build_mesh(request_for(folder.write("shell.geo", kQuarterShell), 0.15, 2));
   ASSERT_EQ(mesh.order, 2);
-  auto radius = [&](std::int32_t node) { return std::hypot(mesh.node(node)[0], mesh.node(node)[1]); };
-  std::size_t checked = 0;
-  for (double surface_radius : {1.0, 0.5}) {
-    for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
-      const std::int32_t* v = mesh.face(f);
-      const bool on_cylinder = std::all_of(v, v + 3, [&](std::int32_t n) {
-        return std::fabs(radius(n) - surface_radius) < 1e-9 * surface_radius;
-      });
-      if (!on_cylinder) continue;
-      // A triangle of the curved face only if its straight edge midpoints are off it.
-      const Point3 chord = midpoint(mesh.node(v[0]), mesh.node(v[1]));
-      if (std::fabs(std::hypot(chord[0], chord[1]) - surface_radius) < 1e-6) continue;
-      for (int k = 3; k < 6; ++k) {
-        EXPECT_NEAR(radius(v[k]), surface_radius, 1e-9 * surface_radius) << "face " << f << " node " << k;
-        ++checked;
-      }
-    }
-  }
-  EXPECT_GT(checked, 100u);
+  EXPECT_GT(check_edge_nodes_on_cylinders(mesh), 300u);
   // Quarter annulus times height: (pi/4)(1 - 0.25)(0.5); the straight-sided volume is a
   // little smaller.
   const double exact = M_PI / 4 * 0.75 * 0.5;
@@ -463,6 +471,32 @@ TEST(Mesher, RefinementsSplitUniformly) {
   EXPECT_NEAR(area(twice, "top"), 1.0, 1e-12);
 }
 
+TEST(Mesher, LevelsAreNestedAndStayOnTheCurvedGeometry) {
+  ScratchFolder folder;
+  MeshRequest request = request_for(folder.write("shell.geo", kQuarterShell), 0.3, 2);
+  request.threads = 0;
+  const std::vector<Mesh> levels = build_mesh_levels(request, 3);
+  ASSERT_EQ(levels.size(), 3u);
+  const double exact = M_PI / 4 * 0.75 * 0.5;
+  double previous_gap = 1.0;
+  for (std::size_t k = 0; k < levels.size(); ++k) {
+    const Mesh& mesh = levels[k];
+    EXPECT_EQ(mesh.order, 2);
+    if (k > 0) {
+      EXPECT_EQ(mesh.n_tets(), 8 * levels[k - 1].n_tets());
+      EXPECT_EQ(mesh.n_faces(), 4 * levels[k - 1].n_faces());
+    }
+    // Vertices made by splitting were edge nodes on the geometry, and the new edge
+    // nodes are placed on it again.
+    EXPECT_GT(check_edge_nodes_on_cylinders(mesh), 0u) << "level " << k;
+    const double gap = exact - total_volume(mesh);  // straight-sided volume, from below
+    EXPECT_GT(gap, 0.0);
+    EXPECT_LT(gap, previous_gap / 3.0) << "level " << k;
+    previous_gap = gap;
+  }
+  EXPECT_THROW(build_mesh_levels(request, 0), MeshError);
+}
+
 TEST(Renumbering, ReverseCuthillMcKeeKeepsTheMeshAndNarrowsTheBand) {
   ScratchFolder folder;
   const fs::path file = folder.write("slab.geo", R"(
@@ -564,6 +598,12 @@ TEST(Mesher, ReadyMeshTakesItsOrderOrIsElevated) {
   EXPECT_EQ(quadratic.order, 2);
   EXPECT_EQ(quadratic.n_tets(), linear.n_tets());
   EXPECT_NEAR(area(quadratic, "top"), 1.0, 1e-12);
+  MeshRequest refine = request_for(folder.path() / "box2.msh", 0.01, 1);
+  refine.refinements = 1;
+  const Mesh refined = build_mesh(refine);
+  EXPECT_EQ(refined.order, 2);
+  EXPECT_EQ(refined.n_tets(), 8 * linear.n_tets());
+  EXPECT_NEAR(total_volume(refined), 1.0, 1e-12);
 }
 
 TEST(Mesher, TouchingCadSolidsAreJoined) {
