@@ -111,6 +111,8 @@ struct Case {
   std::map<std::string, double> heat_sources;   // physical volume -> W/m3
   std::map<std::string, Place> heat_source_places;
   std::map<std::string, BoundarySpec> boundaries;
+  Place regions_place;     // the 'regions' key itself
+  Place boundaries_place;  // the 'boundaries' key (line 0 when the file has none)
 
   std::string analysis_type = "steady";      // "steady" (only; "transient" is refused for now)
   TransientSpec transient;

@@ -523,6 +523,7 @@ void read_materials_and_regions(const Reader& reader, const YAML::Node& root, Ca
     c.materials[entry.name] = material;
   }
 
+  if (const auto section = find_entry(root, "regions")) c.regions_place = reader.place(section->key, "regions");
   for (const Entry& entry : entries(reader, child(root, "regions"), Place{})) {
     const Place where = reader.place(entry.key, "regions." + entry.name);
     const std::string& material = entry.value.Scalar();
@@ -551,6 +552,8 @@ void read_materials_and_regions(const Reader& reader, const YAML::Node& root, Ca
 }
 
 void read_boundaries(const Reader& reader, const YAML::Node& root, Case& c) {
+  c.boundaries_place = Place{reader.file, 0, "boundaries", ""};
+  if (const auto section = find_entry(root, "boundaries")) c.boundaries_place = reader.place(section->key, "boundaries");
   for (const Entry& entry : entries(reader, child(root, "boundaries"), Place{})) {
     const std::string key = "boundaries." + entry.name;
     BoundarySpec boundary;

@@ -677,3 +677,51 @@ TEST(Cases, DuctBracketStepImportsInEitherUnit) {
 
 }  // namespace
 }  // namespace hearth
+
+// --- straight refinement (mesh/straight_refinement) ---
+#include "mesh/straight_refinement.hpp"
+
+namespace hearth {
+namespace {
+
+// Splitting around the shortest diagonal keeps the shapes in a bounded number of
+// similarity classes (Bey, "Tetrahedral grid refinement", Computing 55, 1995, from
+// memory): the minimum quality must not collapse under repeated splitting, and the
+// volume and boundary area are preserved exactly.
+TEST(StraightRefinement, SplitsIntoEightAndKeepsQualityAndVolume) {
+  MeshRequest request;
+  const auto dir = std::filesystem::temp_directory_path() / ("hearth_refine_" + std::to_string(::getpid()));
+  std::filesystem::create_directories(dir);
+  request.geometry_file = dir / "box.geo";
+  std::ofstream(request.geometry_file) << "SetFactory(\"OpenCASCADE\");\nBox(1) = {0, 0, 0, 1, 2, 3};\n"
+                                          "Physical Volume(\"box\") = {1};\nPhysical Surface(\"all\") = {1, 2, 3, 4, 5, 6};\n";
+  request.size = 0.5;
+  Mesh mesh = build_mesh(request);
+  double base_quality = 1.0;
+  for (double q : mesh.tet_quality) base_quality = std::min(base_quality, q);
+  for (int level = 1; level <= 2; ++level) {
+    const Mesh fine = refine_straight(mesh);
+    EXPECT_EQ(fine.n_tets(), 8 * mesh.n_tets());
+    EXPECT_EQ(fine.n_faces(), 4 * mesh.n_faces());
+    double volume = 0.0, quality = 1.0;
+    for (std::size_t e = 0; e < fine.n_tets(); ++e) {
+      const std::int32_t* v = fine.tet(e);
+      const double ve = tet_signed_volume(fine.node(v[0]), fine.node(v[1]), fine.node(v[2]), fine.node(v[3]));
+      ASSERT_GT(ve, 0.0);
+      volume += ve;
+      quality = std::min(quality, fine.tet_quality[e]);
+    }
+    EXPECT_NEAR(volume, 6.0, 1e-12);
+    EXPECT_GT(quality, 0.4 * base_quality) << "level " << level;
+    mesh = fine;
+  }
+  const Mesh quadratic = elevate_straight(mesh);
+  EXPECT_EQ(quadratic.order, 2);
+  for (std::size_t e = 0; e < quadratic.n_tets(); ++e) {
+    const std::int32_t* v = quadratic.tet(e);
+    for (int d = 0; d < 3; ++d) ASSERT_NEAR(quadratic.node(v[8])[d], 0.5 * (quadratic.node(v[1])[d] + quadratic.node(v[3])[d]), 1e-15);
+  }
+}
+
+}  // namespace
+}  // namespace hearth

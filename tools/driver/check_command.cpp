@@ -2,12 +2,11 @@
 #include <cmath>
 #include <cstdio>
 
-#include "solver/post_processing.hpp"
+#include "mesh/mesh_topology.hpp"
 #include "solver/assembler.hpp"
 #include "solver/point_locator.hpp"
 #include "solver/steady_solver.hpp"
 #include "tools/driver/commands.hpp"
-#include "io/input_error.hpp"
 
 namespace hearth {
 
@@ -17,16 +16,13 @@ int check_command(const CommonOptions& options) {
   const Mesh mesh = mesh_case(c, options.threads, progress);
   check_names_against_mesh(c, mesh);
   const ThermalProblem problem = make_problem(c, mesh);
-  if (!temperature_is_determined(mesh, problem))
-    throw InputError(c.file.string() +
-                     ": boundaries: no fixed temperature or convection on any surface: the steady temperature is "
-                     "undetermined; add a 'temperature' or 'convection' condition to at least one boundary");
+  check_determined(c, mesh, problem);
   sample_probes(c, mesh, std::vector<double>(mesh.n_nodes(), 0.0));  // throws for a probe outside
 
   double qmin = 1.0;
   for (double q : mesh.tet_quality) qmin = std::min(qmin, q);
   const auto conditions = describe_conditions(mesh, problem);
-  const auto neighbours = face_neighbours(mesh);
+  const std::vector<bool> internal = internal_boundaries(mesh);
   std::printf("%s\n", c.title.empty() ? c.file.c_str() : c.title.c_str());
   std::printf("geometry: %s\n", c.geometry_file.c_str());
   std::printf("mesh: %zu nodes, %zu elements (%d-node tetrahedra), %zu boundary triangles, min quality %.3f\n",
@@ -44,16 +40,12 @@ int check_command(const CommonOptions& options) {
     std::printf("  %-24s material %-20s %9zu elements  volume %.6g %s3\n", mesh.regions[r].name.c_str(),
                 c.regions.at(mesh.regions[r].name).c_str(), count[r], volume[r] / l3, c.units.length.c_str());
   std::printf("surfaces (%zu):\n", mesh.boundaries.size());
-  std::vector<char> interior(mesh.boundaries.size(), 1);
   std::vector<std::size_t> faces(mesh.boundaries.size(), 0);
-  for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
-    ++faces[mesh.face_boundary[f]];
-    if (neighbours[f][0] < 0 || neighbours[f][1] < 0) interior[mesh.face_boundary[f]] = 0;
-  }
+  for (std::size_t f = 0; f < mesh.n_faces(); ++f) ++faces[mesh.face_boundary[f]];
   for (std::size_t b = 0; b < mesh.boundaries.size(); ++b)
     std::printf("  %-24s %-22s %9zu triangles%s%s\n", mesh.boundaries[b].name.c_str(), conditions[b].c_str(), faces[b],
-                interior[b] && faces[b] ? "  (internal)" : "",
-                c.boundaries.count(mesh.boundaries[b].name) ? "" : "  <- insulated by default");
+                internal[b] ? "  (internal: heat rate across it reported)" : "",
+                internal[b] || c.boundaries.count(mesh.boundaries[b].name) ? "" : "  <- insulated by default");
   if (mesh.unnamed_exterior_faces)
     std::printf("  %zu exterior triangles on unnamed surfaces: insulated\n", mesh.unnamed_exterior_faces);
   for (const auto& p : c.probes) std::printf("probe %s: inside\n", p.name.c_str());

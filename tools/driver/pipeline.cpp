@@ -10,6 +10,8 @@
 #include "io/case_file.hpp"
 #include "io/input_error.hpp"
 #include "mesh/gmsh_mesher.hpp"
+#include "mesh/mesh_topology.hpp"
+#include "solver/steady_solver.hpp"
 #include "solver/point_locator.hpp"
 
 namespace hearth {
@@ -76,10 +78,17 @@ void check_names_against_mesh(const Case& c, const Mesh& mesh) {
     if (index_of(mesh.boundaries, name) < 0)
       throw InputError(spec.place.str() + ": the geometry has no surface named '" + name +
                        "'; its surfaces are: " + surfaces);
+  const std::vector<bool> internal = internal_boundaries(mesh);
+  for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) {
+    const auto it = c.boundaries.find(mesh.boundaries[b].name);
+    if (internal[b] && it != c.boundaries.end() && (it->second.convection || it->second.heat_flux))
+      throw InputError(it->second.place.str() + ": '" + it->first +
+                       "' is an internal surface (material on both sides): convection and heat_flux act on outer "
+                       "surfaces only; remove the condition to get the heat rate across it");
+  }
   for (const auto& region : mesh.regions)
     if (!c.regions.count(region.name)) {
-      Place where{c.file.string(), 0, "regions", ""};
-      if (!c.region_places.empty()) where.line = c.region_places.begin()->second.line;
+      const Place& where = c.regions_place;
       throw InputError(where.str() + ": volume '" + region.name + "' has no material; add '" + region.name +
                        ": <material>' under regions (the geometry's volumes are: " + volumes + ")");
     }
@@ -120,7 +129,12 @@ LinearSolverSettings linear_settings(const Case& c) {
 
 std::vector<std::string> describe_conditions(const Mesh& mesh, const ThermalProblem& problem) {
   std::vector<std::string> out;
+  const std::vector<bool> internal = internal_boundaries(mesh);
   for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) {
+    if (internal[b] && !problem.boundaries[b].is_fixed()) {
+      out.push_back("internal");
+      continue;
+    }
     const BoundaryCondition& bc = problem.boundaries[b];
     std::string d;
     if (bc.is_fixed()) d = "temperature";
@@ -133,9 +147,17 @@ std::vector<std::string> describe_conditions(const Mesh& mesh, const ThermalProb
 
 std::vector<std::string> insulated_boundaries(const Case& c, const Mesh& mesh) {
   std::vector<std::string> out;
-  for (const auto& b : mesh.boundaries)
-    if (!c.boundaries.count(b.name)) out.push_back(b.name);
+  const std::vector<bool> internal = internal_boundaries(mesh);
+  for (std::size_t b = 0; b < mesh.boundaries.size(); ++b)
+    if (!internal[b] && !c.boundaries.count(mesh.boundaries[b].name)) out.push_back(mesh.boundaries[b].name);
   return out;
+}
+
+void check_determined(const Case& c, const Mesh& mesh, const ThermalProblem& problem) {
+  if (!temperature_is_determined(mesh, problem))
+    throw InputError(c.boundaries_place.str() +
+                     ": no fixed temperature or convection on any surface: the steady temperature is undetermined; "
+                     "add a 'temperature' or 'convection' condition to at least one boundary");
 }
 
 std::vector<ProbeRecord> sample_probes(const Case& c, const Mesh& mesh, const std::vector<double>& temperature) {

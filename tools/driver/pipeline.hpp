@@ -31,6 +31,9 @@ Mesh mesh_case(const Case& c, int threads, const Progress& progress);
 // naming the case-file line and listing the names the geometry has.
 void check_names_against_mesh(const Case& c, const Mesh& mesh);
 
+// InputError (naming the boundaries key) when no surface fixes the temperature level.
+void check_determined(const Case& c, const Mesh& mesh, const ThermalProblem& problem);
+
 ThermalProblem make_problem(const Case& c, const Mesh& mesh);
 LinearSolverSettings linear_settings(const Case& c);
 

@@ -73,14 +73,12 @@ int run_command(const CommonOptions& options) {
   check_names_against_mesh(c, mesh);
   check_interrupt("after meshing; nothing was written");
   const ThermalProblem problem = make_problem(c, mesh);
+  check_determined(c, mesh, problem);
+  sample_probes(c, mesh, std::vector<double>(mesh.n_nodes(), 0.0));  // a probe outside: error before the solve
 
   RunRecord record = start_record(c, mesh);
   SteadySolution solution;
-  try {
-    solution = solve_steady(mesh, problem, linear_settings(c), [&](const std::string& s) { progress.say(s); });
-  } catch (const std::invalid_argument& e) {
-    throw InputError(c.file.string() + ": boundaries: " + e.what());
-  }
+  solution = solve_steady(mesh, problem, linear_settings(c), [&](const std::string& s) { progress.say(s); });
   check_interrupt("after the solve; nothing was written");
   record.dofs = solution.dofs;
   record.linear_solver = solution.linear.solver;
