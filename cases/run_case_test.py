@@ -1,0 +1,30 @@
+#!/usr/bin/env python3
+"""Runs one example case as a test: hearth must exit 0, and its summary must show a
+converged solve and an energy balance closed to the solver tolerance (the heat-rate
+method makes the balance exact up to the linear solve; common practice, no source)."""
+import json
+import subprocess
+import sys
+from pathlib import Path
+
+hearth, case, out = sys.argv[1], Path(sys.argv[2]), Path(sys.argv[3])
+run = subprocess.run([hearth, "run", str(case), "--out", str(out), "--quiet"], capture_output=True, text=True)
+failures = []
+if run.returncode != 0:
+    failures.append(f"exit status {run.returncode}: {run.stderr.strip()}")
+else:
+    summary = json.loads((out / "summary.json").read_text())
+    if not summary["solve"]["converged"]:
+        failures.append("solve not converged")
+    if abs(summary["energy_balance"]["relative_imbalance"]) > 1e-8:
+        failures.append(f"energy imbalance {summary['energy_balance']['relative_imbalance']}")
+    if not (out / "temperature.vtu").is_file():
+        failures.append("no temperature.vtu")
+    for name, region in summary["regions"].items():
+        print(f"{name}: {region['temperature']['min']:.2f} .. {region['temperature']['max']:.2f} {summary['temperature_unit']}")
+    for name, boundary in summary["boundaries"].items():
+        print(f"{name}: {boundary['heat_rate']:.4g} W")
+for f in failures:
+    print("FAIL:", f)
+print(f"{0 if failures else 1} passed, {1 if failures else 0} failed")
+sys.exit(1 if failures else 0)
