@@ -161,7 +161,31 @@ void apply_node_numbering(Mesh& mesh, const std::vector<std::int32_t>& new_numbe
   for (std::int32_t& v : mesh.face_nodes) v = new_number[v];
 }
 
-void renumber_reverse_cuthill_mckee(Mesh& mesh) { apply_node_numbering(mesh, reverse_cuthill_mckee_order(mesh)); }
+void sort_elements_by_lowest_node(Mesh& mesh) {
+  const int per_tet = mesh.nodes_per_tet();
+  std::vector<std::int32_t> lowest(mesh.n_tets());
+  for (std::size_t e = 0; e < mesh.n_tets(); ++e)
+    lowest[e] = *std::min_element(mesh.tet(e), mesh.tet(e) + per_tet);
+  std::vector<std::int32_t> order(mesh.n_tets());
+  std::iota(order.begin(), order.end(), 0);
+  std::stable_sort(order.begin(), order.end(), [&](std::int32_t a, std::int32_t b) { return lowest[a] < lowest[b]; });
+  std::vector<std::int32_t> nodes(mesh.tet_nodes.size()), region(mesh.n_tets());
+  std::vector<double> quality(mesh.tet_quality.size());
+  for (std::size_t k = 0; k < order.size(); ++k) {
+    const std::size_t e = order[k];
+    std::copy(mesh.tet(e), mesh.tet(e) + per_tet, nodes.begin() + k * per_tet);
+    region[k] = mesh.tet_region[e];
+    if (!quality.empty()) quality[k] = mesh.tet_quality[e];
+  }
+  mesh.tet_nodes = std::move(nodes);
+  mesh.tet_region = std::move(region);
+  mesh.tet_quality = std::move(quality);
+}
+
+void renumber_reverse_cuthill_mckee(Mesh& mesh) {
+  apply_node_numbering(mesh, reverse_cuthill_mckee_order(mesh));
+  sort_elements_by_lowest_node(mesh);
+}
 
 std::size_t node_bandwidth(const Mesh& mesh) {
   std::size_t bandwidth = 0;

@@ -19,7 +19,11 @@ std::vector<std::int32_t> reverse_cuthill_mckee_order(const Mesh& mesh);
 // tet_nodes and face_nodes. `new_number` must be a permutation of 0 .. n_nodes()-1.
 void apply_node_numbering(Mesh& mesh, const std::vector<std::int32_t>& new_number);
 
-// reverse_cuthill_mckee_order followed by apply_node_numbering.
+// Orders the elements by their lowest node number (stable), carrying tet_region and
+// tet_quality along, so that a pass over the elements walks the nodes in order.
+void sort_elements_by_lowest_node(Mesh& mesh);
+
+// reverse_cuthill_mckee_order, apply_node_numbering, then sort_elements_by_lowest_node.
 void renumber_reverse_cuthill_mckee(Mesh& mesh);
 
 // Largest |i - j| over node pairs sharing an element: the half-bandwidth of the
