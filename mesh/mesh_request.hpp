@@ -18,7 +18,7 @@ struct MeshRequest {
   int order = 1;                              // 1: 4-node tets, 2: 10-node tets
   std::map<std::string, double> local_sizes;  // named boundary or region -> size, metres
   int refinements = 0;                        // uniform splits after meshing (studies)
-  int threads = 0;                            // 0: Gmsh's default
+  int threads = 0;                            // meshing threads; 0: two
   bool renumber = true;                       // reverse Cuthill-McKee for locality
   std::function<void(const std::string&)> progress;  // one line per stage; may be empty
 

@@ -28,7 +28,8 @@ std::string loaded_blas() {
   using ConfigFn = char* (*)();
   if (void* sym = dlsym(RTLD_DEFAULT, "openblas_get_config")) {
     const char* config = reinterpret_cast<ConfigFn>(sym)();
-    return std::string("OpenBLAS ") + (config ? config : "");
+    const std::string text = config ? config : "";
+    return text.rfind("OpenBLAS", 0) == 0 ? text : "OpenBLAS " + text;
   }
   if (void* sym = dlsym(RTLD_DEFAULT, "dgemm_")) {
     Dl_info info;

@@ -6,35 +6,33 @@
 
 namespace hearth {
 
+namespace {
+// P_n(x) and its derivative by the three-term recurrence (n >= 1, |x| < 1).
+std::array<double, 2> legendre_and_derivative(int n, double x) {
+  double p0 = 1.0, p1 = x;
+  for (int k = 2; k <= n; ++k) {
+    const double pk = ((2.0 * k - 1.0) * x * p1 - (k - 1.0) * p0) / k;
+    p0 = p1;
+    p1 = pk;
+  }
+  return {p1, n * (x * p1 - p0) / (x * x - 1.0)};
+}
+}  // namespace
+
 std::vector<std::array<double, 2>> gauss_legendre_01(int n) {
-  // Newton iteration on the Legendre polynomial P_n from Chebyshev-like guesses.
+  // Newton iteration on P_n from Chebyshev-like guesses; weights 2 / ((1 - x^2) P_n'(x)^2).
   std::vector<std::array<double, 2>> rule(n);
   const double pi = std::acos(-1.0);
   for (int i = 0; i < n; ++i) {
     double x = std::cos(pi * (i + 0.75) / (n + 0.5));
-    double dp = 0.0;
     for (int iter = 0; iter < 100; ++iter) {
-      double p0 = 1.0, p1 = x;
-      for (int k = 2; k <= n; ++k) {
-        const double pk = ((2.0 * k - 1.0) * x * p1 - (k - 1.0) * p0) / k;
-        p0 = p1;
-        p1 = pk;
-      }
-      dp = n * (x * p1 - p0) / (x * x - 1.0);
-      const double dx = p1 / dp;
+      const auto [p, dp] = legendre_and_derivative(n, x);
+      const double dx = p / dp;
       x -= dx;
       if (std::abs(dx) < 1e-16) break;
     }
-    // Recompute the derivative at the converged node for the weight.
-    double p0 = 1.0, p1 = x;
-    for (int k = 2; k <= n; ++k) {
-      const double pk = ((2.0 * k - 1.0) * x * p1 - (k - 1.0) * p0) / k;
-      p0 = p1;
-      p1 = pk;
-    }
-    dp = n * (x * p1 - p0) / (x * x - 1.0);
-    const double w = 2.0 / ((1.0 - x * x) * dp * dp);
-    rule[i] = {0.5 * (1.0 - x), 0.5 * w};  // map [-1,1] -> [0,1]
+    const double dp = legendre_and_derivative(n, x)[1];
+    rule[i] = {0.5 * (1.0 - x), 1.0 / ((1.0 - x * x) * dp * dp)};  // mapped to [0, 1]
   }
   return rule;
 }

@@ -74,6 +74,13 @@ Point tet_map(const TetGeometry& g, const Point& xi) {
 }
 
 double tet_volume(const TetGeometry& g) {
+  if (g.order == 1) {
+    const Point& o = g.x[0];
+    const double a[3] = {g.x[1][0] - o[0], g.x[1][1] - o[1], g.x[1][2] - o[2]};
+    const double b[3] = {g.x[2][0] - o[0], g.x[2][1] - o[1], g.x[2][2] - o[2]};
+    const double c[3] = {g.x[3][0] - o[0], g.x[3][1] - o[1], g.x[3][2] - o[2]};
+    return (a[0] * (b[1] * c[2] - b[2] * c[1]) - a[1] * (b[0] * c[2] - b[2] * c[0]) + a[2] * (b[0] * c[1] - b[1] * c[0])) / 6.0;
+  }
   double volume = 0.0;
   double J[3][3];
   for (const auto& q : tet_rule(g.affine() ? 1 : 4)) volume += q.weight * tet_jacobian(g, q.xi, J);
@@ -124,6 +131,11 @@ void add_tet_conductance(const TetGeometry& g, double conductivity, double* K) {
 
 void add_tet_source(const TetGeometry& g, double source, double* F) {
   if (source == 0.0) return;
+  if (g.order == 1) {  // int f L_a = f V / 4
+    const double share = source * tet_volume(g) / 4.0;
+    for (int a = 0; a < 4; ++a) F[a] += share;
+    return;
+  }
   const int n = tet_nodes(g.order);
   double N[max_tet_nodes];
   double J[3][3];

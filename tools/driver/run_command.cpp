@@ -88,6 +88,9 @@ int run_command(const CommonOptions& options) {
   record.converged = solution.converged();
   record.failure = solution.linear.message;
   record.boundary_conditions = describe_conditions(mesh, problem);
+  if (record.linear_solver == "cholmod" && record.blas.find("OpenBLAS") == std::string::npos)
+    record.warnings.push_back("the direct solver runs on a slow BLAS (" + record.blas +
+                              "); install Debian's libopenblas0-pthread for a several times faster factorisation");
 
   record.results = post_process(mesh, problem, solution.temperature);
   record.probes = sample_probes(c, mesh, solution.temperature);
