@@ -11,3 +11,15 @@ if(CHOLMOD_FOUND AND NOT TARGET CHOLMOD::CHOLMOD)
                         INTERFACE_INCLUDE_DIRECTORIES "${CHOLMOD_INCLUDE_DIR}"
                         INTERFACE_LINK_LIBRARIES "${SUITESPARSECONFIG_LIBRARY}")
 endif()
+
+# UMFPACK (same SuiteSparse package): sparse LU for non-symmetric Jacobians.
+find_library(UMFPACK_LIBRARY NAMES umfpack)
+if(UMFPACK_LIBRARY AND NOT TARGET UMFPACK::UMFPACK)
+  add_library(UMFPACK::UMFPACK UNKNOWN IMPORTED)
+  set_target_properties(UMFPACK::UMFPACK PROPERTIES IMPORTED_LOCATION "${UMFPACK_LIBRARY}"
+                        INTERFACE_INCLUDE_DIRECTORIES "${CHOLMOD_INCLUDE_DIR}"
+                        INTERFACE_LINK_LIBRARIES "${SUITESPARSECONFIG_LIBRARY}")
+endif()
+if(NOT UMFPACK_LIBRARY)
+  message(FATAL_ERROR "UMFPACK not found: install libsuitesparse-dev (tools/setup-deps.sh)")
+endif()

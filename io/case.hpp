@@ -8,6 +8,8 @@
 #include <string>
 #include <vector>
 
+#include "solver/material.hpp"
+
 namespace hearth {
 
 constexpr double kelvin_offset = 273.15;  // 0 degC in K, exact
@@ -35,7 +37,10 @@ struct Place {
 
 struct MaterialSpec {
   std::string name;
-  double conductivity = 0.0;                     // W/(m K), > 0
+  // W/(m K): a number, a table in temperature, orthotropic or a full tensor (K-based
+  // tables: the reader converts table temperatures to kelvin).
+  Conductivity conductivity;
+  std::string library;                           // library entry it came from, if any
   std::optional<double> density;                 // kg/m3
   std::optional<double> specific_heat;           // J/(kg K)
   std::optional<double> max_service_temperature; // K
@@ -43,7 +48,7 @@ struct MaterialSpec {
 };
 
 struct ConvectionSpec {
-  double coefficient = 0.0;  // W/(m2 K), > 0
+  PiecewiseLinear coefficient;  // W/(m2 K), > 0; a number or a table of the surface temperature (K)
   double ambient = 0.0;      // K
 };
 
@@ -54,6 +59,7 @@ struct BoundarySpec {
   std::optional<double> temperature;  // K
   std::optional<double> heat_flux;    // W/m2 into the body
   std::optional<ConvectionSpec> convection;
+  std::optional<Radiation> radiation;  // emissivity (0, 1], surroundings in K
   Place place;
 };
 
@@ -117,9 +123,16 @@ struct Case {
   std::string analysis_type = "steady";      // "steady" (only; "transient" is refused for now)
   TransientSpec transient;
   SolverSpec solver;
+  // safety: {touch_surfaces: [...], touch_limit: 60}; the limit in K (default 60 degC).
+  std::vector<std::string> touch_surfaces;
+  double touch_limit = 60.0 + kelvin_offset;
+  Place safety_place;
   std::vector<ProbeSpec> probes;
   std::vector<LineSpec> lines;
   std::filesystem::path output_directory;  // absolute
+  // Warnings found while reading ("case.yaml:9: materials.board.conductivity.axis_2: ...");
+  // the driver prints them and puts them in summary.json.
+  std::vector<std::string> warnings;
 };
 
 }  // namespace hearth

@@ -141,59 +141,57 @@ void Assembler::partition_rows() {
 }
 
 void Assembler::assemble(const ThermalProblem& problem, CsrMatrix& A, std::vector<double>& b) const {
-  if (A.row_ptr.size() != pattern_.row_ptr.size()) {
-    A.n = pattern_.n;
-    A.row_ptr = pattern_.row_ptr;
-    A.col = pattern_.col;
+  // The linear system for T_free with the fixed values in place: A = dR/dT and
+  // b = -R(T with free values 0), so that A T_free = b.
+  assemble_terms(problem, dofs_.fixed_value, JacobianKind::exact, &A, b);
+  for (double& v : b) v = -v;
+}
+
+void Assembler::assemble_terms(const ThermalProblem& problem, const std::vector<double>& temperature,
+                               JacobianKind kind, CsrMatrix* J, std::vector<double>& R) const {
+  if (J && J->row_ptr.size() != pattern_.row_ptr.size()) {
+    J->n = pattern_.n;
+    J->row_ptr = pattern_.row_ptr;
+    J->col = pattern_.col;
   }
-  A.val.assign(pattern_.nnz(), 0.0);
-  b.assign(pattern_.n, 0.0);
+  if (J) J->val.assign(pattern_.nnz(), 0.0);
+  double* values = J ? J->val.data() : nullptr;
+  R.assign(pattern_.n, 0.0);
   const int npe = mesh_.nodes_per_tet(), npf = mesh_.nodes_per_face();
 
 #pragma omp parallel num_threads(threads_)
   {
     const int t = omp_get_thread_num();
     const std::int32_t own_begin = row_begin_[t], own_end = row_begin_[t + 1];
-    double K[max_tet_nodes * max_tet_nodes], F[max_tet_nodes];
-    // Scatter one local matrix and load: owned free rows only; fixed columns go to b.
+    double K[max_tet_nodes * max_tet_nodes], F[max_tet_nodes], T[max_tet_nodes];
+    // Scatter one local Jacobian and residual: owned free rows, free columns only (the
+    // fixed temperatures are already in T, so their columns need no correction).
     auto scatter = [&](const std::int32_t* nodes, int n, const std::int32_t* positions) {
       for (int a = 0; a < n; ++a) {
         const std::int32_t r = dofs_.free_index[nodes[a]];
         if (r < own_begin || r >= own_end) continue;  // also skips fixed rows (r = -1)
-        double rhs = F[a];
-        for (int c = 0; c < n; ++c) {
-          const std::int32_t p = positions[a * n + c];
-          if (p >= 0)
-            A.val[p] += K[a * n + c];
-          else
-            rhs -= K[a * n + c] * dofs_.fixed_value[nodes[c]];
-        }
-        b[r] += rhs;
+        if (values)
+          for (int c = 0; c < n; ++c) {
+            const std::int32_t p = positions[a * n + c];
+            if (p >= 0) values[p] += K[a * n + c];
+          }
+        R[r] += F[a];
       }
     };
     for (const std::int32_t e : thread_tets_[t]) {
-      const RegionProperties& region = problem.regions[mesh_.tet_region[e]];
-      const TetGeometry g = tet_geometry(mesh_, e);
-      std::fill(K, K + npe * npe, 0.0);
-      std::fill(F, F + npe, 0.0);
-      add_tet_conductance(g, region.conductivity, K);   // int k grad N_a . grad N_b
-      add_tet_source(g, region.heat_source, F);         // int f N_a
-      if (problem.source_field) add_tet_source_field(g, problem.source_field, problem.source_field_degree, F);
-      scatter(mesh_.tet(e), npe, &tet_positions_[std::size_t(e) * npe * npe]);
+      const std::int32_t* nodes = mesh_.tet(e);
+      for (int a = 0; a < npe; ++a) T[a] = temperature[nodes[a]];
+      tet_local_terms(tet_geometry(mesh_, e), problem.regions[mesh_.tet_region[e]], problem.source_field,
+                      problem.source_field_degree, T, kind, F, values ? K : nullptr);
+      scatter(nodes, npe, &tet_positions_[std::size_t(e) * npe * npe]);
     }
     for (const std::int32_t f : thread_faces_[t]) {
       const BoundaryCondition& bc = problem.boundaries[mesh_.face_boundary[f]];
       if (bc.is_fixed() || bc.is_insulated()) continue;
-      const FaceGeometry g = face_geometry(mesh_, f);
-      std::fill(K, K + npf * npf, 0.0);
-      std::fill(F, F + npf, 0.0);
-      double q_in = bc.heat_flux;  // int (q_in + h T_inf) N_a
-      if (bc.convection) {
-        add_face_mass(g, bc.convection->coefficient, K);  // int h N_a N_b
-        q_in += bc.convection->coefficient * bc.convection->ambient;
-      }
-      add_face_load(g, q_in, F);
-      scatter(mesh_.face(f), npf, &face_positions_[std::size_t(f) * npf * npf]);
+      const std::int32_t* nodes = mesh_.face(f);
+      for (int a = 0; a < npf; ++a) T[a] = temperature[nodes[a]];
+      face_local_terms(face_geometry(mesh_, f), bc, T, kind, F, values ? K : nullptr);
+      scatter(nodes, npf, &face_positions_[std::size_t(f) * npf * npf]);
     }
   }
 }

@@ -7,6 +7,7 @@
 #include "mesh/mesh.hpp"
 #include "solver/csr_matrix.hpp"
 #include "solver/dof_map.hpp"
+#include "solver/local_terms.hpp"
 #include "solver/problem.hpp"
 #include "solver/tet_element.hpp"
 
@@ -20,13 +21,21 @@ FaceGeometry face_geometry(const Mesh& mesh, std::size_t face);
 // element matrices straight into place: re-assembly in Newton or time loops costs one
 // pass over the elements. Threads own contiguous row ranges, so no two threads write
 // the same entry (no atomics); an element straddling two ranges is computed by both.
-// Fixed temperatures are eliminated symmetrically: their columns move to b.
+// Fixed temperatures are eliminated symmetrically: their columns move to b (the
+// residual form evaluates them at their fixed values).
 class Assembler {
  public:
   Assembler(const Mesh& mesh, const DofMap& dofs, int threads = 0);
 
-  // A gets the pattern (on first use) and the values; b the load. Units: W/K and W.
+  // Linear problems: A T_free = b with the fixed temperatures eliminated. A gets the
+  // pattern (on first use) and the values; b the load. Units: W/K and W.
   void assemble(const ThermalProblem& problem, CsrMatrix& A, std::vector<double>& b) const;
+
+  // Residual R (free rows, W) and Jacobian J = dR/dT_free (W/K) at the nodal
+  // temperatures `temperature` (all nodes, K; fixed nodes hold their values). J may be
+  // null: residual only (line searches).
+  void assemble_terms(const ThermalProblem& problem, const std::vector<double>& temperature, JacobianKind kind,
+                      CsrMatrix* J, std::vector<double>& R) const;
 
   const CsrMatrix& pattern() const { return pattern_; }
   int threads() const { return threads_; }

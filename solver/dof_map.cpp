@@ -16,8 +16,9 @@ DofMap make_dof_map(const Mesh& mesh, const ThermalProblem& problem) {
     const auto& bc = problem.boundaries[mesh.face_boundary[f]];
     if (!bc.is_fixed()) continue;
     for (int a = 0; a < npf; ++a) {
-      fixed[mesh.face(f)[a]] = 1;
-      map.fixed_value[mesh.face(f)[a]] = *bc.temperature;
+      const std::int32_t node = mesh.face(f)[a];
+      fixed[node] = 1;
+      map.fixed_value[node] = bc.temperature_field ? bc.temperature_field(mesh.node(node)) : *bc.temperature;
     }
   }
   map.free_index.assign(n, -1);

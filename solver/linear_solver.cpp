@@ -6,11 +6,12 @@
 
 namespace hearth {
 
-std::unique_ptr<LinearSolver> make_linear_solver(const LinearSolverSettings& settings, std::int64_t unknowns) {
+std::unique_ptr<LinearSolver> make_linear_solver(const LinearSolverSettings& settings, std::int64_t unknowns,
+                                                 bool symmetric) {
   const bool direct = settings.kind == LinearSolverKind::direct ||
                       (settings.kind == LinearSolverKind::automatic && unknowns <= settings.direct_limit);
-  if (direct) return make_cholmod_solver();
-  return make_amg_cg_solver(settings.tolerance, settings.max_iterations);
+  if (direct) return symmetric ? make_cholmod_solver() : make_umfpack_solver();
+  return make_amg_krylov_solver(settings.tolerance, settings.max_iterations, symmetric);
 }
 
 double relative_residual(const CsrMatrix& A, const std::vector<double>& b, const std::vector<double>& x) {

@@ -26,7 +26,7 @@ enum class SolveStatus { converged, not_converged, breakdown };
 // The outcome of one solve, as a value: the driver turns failures into messages.
 struct LinearSolveReport {
   SolveStatus status = SolveStatus::converged;
-  std::string solver;               // "cholmod" | "boomeramg-pcg"
+  std::string solver;               // "cholmod" | "umfpack" | "boomeramg-pcg" | "boomeramg-gmres"
   int iterations = 0;               // 0 for the direct solver
   double relative_residual = 0.0;   // |b - A x| / |b|, measured after the solve
   double setup_seconds = 0.0;       // factorisation or multigrid hierarchy
@@ -46,9 +46,13 @@ class LinearSolver {
 };
 
 std::unique_ptr<LinearSolver> make_cholmod_solver();
-std::unique_ptr<LinearSolver> make_amg_cg_solver(double tolerance, int max_iterations);
-// Picks by settings.kind, and for automatic by the number of unknowns.
-std::unique_ptr<LinearSolver> make_linear_solver(const LinearSolverSettings& settings, std::int64_t unknowns);
+std::unique_ptr<LinearSolver> make_umfpack_solver();
+// BoomerAMG-preconditioned CG (symmetric) or GMRES (non-symmetric matrices).
+std::unique_ptr<LinearSolver> make_amg_krylov_solver(double tolerance, int max_iterations, bool symmetric);
+// Picks by settings.kind, and for automatic by the number of unknowns: CHOLMOD or
+// AMG-CG for symmetric matrices, UMFPACK or AMG-GMRES for non-symmetric ones.
+std::unique_ptr<LinearSolver> make_linear_solver(const LinearSolverSettings& settings, std::int64_t unknowns,
+                                                 bool symmetric = true);
 
 // Relative residual |b - A x| / |b| (|b| = 0: absolute residual).
 double relative_residual(const CsrMatrix& A, const std::vector<double>& b, const std::vector<double>& x);

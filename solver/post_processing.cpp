@@ -8,6 +8,7 @@
 #include <unordered_map>
 
 #include "solver/assembler.hpp"
+#include "solver/local_terms.hpp"
 #include "solver/quadrature.hpp"
 
 namespace hearth {
@@ -40,18 +41,6 @@ Point cross(const Point& a, const Point& b) {
 Point face_area_normal(const Mesh& mesh, std::size_t f) {
   const std::int32_t* n = mesh.face(f);
   return cross(sub(mesh.node(n[1]), mesh.node(n[0])), sub(mesh.node(n[2]), mesh.node(n[0])));
-}
-
-// Gradient of the interpolated field at reference point xi of element e.
-Point field_gradient(const Mesh& mesh, const TetGeometry& g, std::size_t e, const Point& xi,
-                     const std::vector<double>& field) {
-  double grad[max_tet_nodes][3];
-  tet_physical_gradients(g, xi, grad);
-  Point result{0, 0, 0};
-  const std::int32_t* nodes = mesh.tet(e);
-  for (int a = 0; a < mesh.nodes_per_tet(); ++a)
-    for (int d = 0; d < 3; ++d) result[d] += field[nodes[a]] * grad[a][d];
-  return result;
 }
 
 int volume_degree(const TetGeometry& g) { return g.affine() ? g.order : 4; }
@@ -93,87 +82,99 @@ std::vector<double> nodal_residual(const Mesh& mesh, const ThermalProblem& probl
 #pragma omp parallel
   {
     std::vector<double>& r = partial[omp_get_thread_num()];
-    double K[max_tet_nodes * max_tet_nodes], F[max_tet_nodes];
+    double R[max_tet_nodes], T[max_tet_nodes];
 #pragma omp for schedule(static)
     for (std::int64_t e = 0; e < n_tets; ++e) {
       if (element_mask && !(*element_mask)[e]) continue;
-      const RegionProperties& region = problem.regions[mesh.tet_region[e]];
-      const TetGeometry g = tet_geometry(mesh, e);
-      std::fill(K, K + npe * npe, 0.0);
-      std::fill(F, F + npe, 0.0);
-      add_tet_conductance(g, region.conductivity, K);
-      add_tet_source(g, region.heat_source, F);
-      if (problem.source_field) add_tet_source_field(g, problem.source_field, problem.source_field_degree, F);
       const std::int32_t* nodes = mesh.tet(e);
-      for (int a = 0; a < npe; ++a) {
-        double ra = -F[a];
-        for (int b = 0; b < npe; ++b) ra += K[a * npe + b] * temperature[nodes[b]];
-        r[nodes[a]] += ra;
-      }
+      for (int a = 0; a < npe; ++a) T[a] = temperature[nodes[a]];
+      tet_local_terms(tet_geometry(mesh, e), problem.regions[mesh.tet_region[e]], problem.source_field,
+                      problem.source_field_degree, T, JacobianKind::exact, R, nullptr);
+      for (int a = 0; a < npe; ++a) r[nodes[a]] += R[a];
     }
   }
   std::vector<double> residual(mesh.n_nodes(), 0.0);
   for (const auto& r : partial)
     for (std::size_t i = 0; i < residual.size(); ++i) residual[i] += r[i];
-  // Boundary terms: + int h (T - T_inf) N_a - int q_in N_a.
+  // Boundary terms: + int [h (T - T_inf) + eps sigma (T^4 - T_sur^4) - q_in] N_a.
   for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
     if (face_mask && !(*face_mask)[f]) continue;
     const BoundaryCondition& bc = problem.boundaries[mesh.face_boundary[f]];
     if (bc.is_fixed() || bc.is_insulated()) continue;
-    const FaceGeometry g = face_geometry(mesh, f);
-    double M[max_face_nodes * max_face_nodes] = {0}, F[max_face_nodes] = {0};
-    double q_in = bc.heat_flux;
-    if (bc.convection) {
-      add_face_mass(g, bc.convection->coefficient, M);
-      q_in += bc.convection->coefficient * bc.convection->ambient;
-    }
-    add_face_load(g, q_in, F);
     const std::int32_t* nodes = mesh.face(f);
-    for (int a = 0; a < npf; ++a) {
-      double ra = -F[a];
-      for (int b = 0; b < npf; ++b) ra += M[a * npf + b] * temperature[nodes[b]];
-      residual[nodes[a]] += ra;
-    }
+    double R[max_face_nodes], T[max_face_nodes];
+    for (int a = 0; a < npf; ++a) T[a] = temperature[nodes[a]];
+    face_local_terms(face_geometry(mesh, f), bc, T, JacobianKind::exact, R, nullptr);
+    for (int a = 0; a < npf; ++a) residual[nodes[a]] += R[a];
   }
   return residual;
 }
 
 namespace {
 
-// Boundary integral of the heat entering through a convection / flux face, W.
-double face_heat_in(const Mesh& mesh, std::size_t f, const BoundaryCondition& bc, const std::vector<double>& T) {
-  const FaceGeometry g = face_geometry(mesh, f);
-  const int npf = mesh.nodes_per_face();
-  double integrals[max_face_nodes];
-  face_shape_integrals(g, integrals);
-  double area = 0.0, t_integral = 0.0;
-  for (int a = 0; a < npf; ++a) {
-    area += integrals[a];
-    t_integral += integrals[a] * T[mesh.face(f)[a]];
-  }
-  double q = bc.heat_flux * area;
-  if (bc.convection) q += bc.convection->coefficient * (bc.convection->ambient * area - t_integral);
-  return q;
-}
-
 // Heat through the fixed-temperature boundaries from the nodal reactions; each node's
 // reaction is shared among the fixed boundaries touching it by their face areas there.
+// int_f (K grad T . n_out) N_a dA for one boundary face from its element's own flux: the
+// heat entering at each face node as the element sees it (exact when the field is).
+void face_flux_loads(const Mesh& mesh, const ThermalProblem& problem, const std::vector<double>& T, std::size_t f,
+                     std::int32_t element, double* loads) {
+  const int npf = mesh.nodes_per_face(), npe = mesh.nodes_per_tet();
+  const FaceGeometry fg = face_geometry(mesh, f);
+  const TetGeometry tg = tet_geometry(mesh, element);
+  const std::int32_t* tet = mesh.tet(element);
+  // The face's vertices in the element's reference coordinates: a point (s, t) of the face
+  // is the same point of the element, curved or not.
+  Point corner[3];
+  for (int k = 0; k < 3; ++k)
+    for (int a = 0; a < 4; ++a)
+      if (tet[a] == mesh.face(f)[k]) corner[k] = tet_node_reference(a);
+  Point centroid{0, 0, 0};
+  for (int a = 0; a < 4; ++a)
+    for (int d = 0; d < 3; ++d) centroid[d] += 0.25 * tg.x[a][d];
+  double t_local[max_tet_nodes], N[max_face_nodes];
+  for (int a = 0; a < npe; ++a) t_local[a] = T[tet[a]];
+  const Conductivity& k = problem.regions[mesh.tet_region[element]].conductivity;
+  for (int a = 0; a < npf; ++a) loads[a] = 0.0;
+  for (const auto& q : triangle_rule(mesh.order == 1 ? 2 : 4)) {
+    const double s = q.xi[0], t = q.xi[1];
+    Point xi, n;
+    for (int d = 0; d < 3; ++d) xi[d] = corner[0][d] + s * (corner[1][d] - corner[0][d]) + t * (corner[2][d] - corner[0][d]);
+    const double w = q.weight * face_jacobian(fg, s, t, &n);
+    const Point x = tet_map(tg, xi);
+    if (dot(n, sub(x, centroid)) < 0) n = {-n[0], -n[1], -n[2]};  // outward
+    const Point kg = conducted_gradient(tg, k, t_local, xi);
+    triangle_shape_values(mesh.order, s, t, N);
+    for (int a = 0; a < npf; ++a) loads[a] += w * dot(kg, n) * N[a];
+  }
+}
+
+// Heat through the fixed-temperature boundaries from the nodal reactions r_i. Where a node
+// touches one fixed boundary it takes all of r_i. Where it touches several, each boundary
+// takes its own flux load at that node (from the element fluxes) plus a share of what
+// that estimate leaves of r_i by face area, so the parts still add up to r_i.
 void add_reaction_heat_rates(const Mesh& mesh, const ThermalProblem& problem, const std::vector<double>& residual,
+                             const std::vector<double>& T,
+                             const std::vector<std::array<std::int32_t, 2>>& neighbours,
                              std::vector<BoundaryResult>& boundaries) {
   const int npf = mesh.nodes_per_face();
-  std::vector<double> node_weight(mesh.n_nodes(), 0.0);
-  std::vector<double> face_areas(mesh.n_faces(), 0.0);
+  std::vector<double> node_area(mesh.n_nodes(), 0.0), node_load(mesh.n_nodes(), 0.0);
+  std::vector<double> face_areas(mesh.n_faces(), 0.0), loads(mesh.n_faces() * npf, 0.0);
   for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
     if (!problem.boundaries[mesh.face_boundary[f]].is_fixed()) continue;
     face_areas[f] = face_area(face_geometry(mesh, f));
-    for (int a = 0; a < npf; ++a) node_weight[mesh.face(f)[a]] += face_areas[f];
+    const std::int32_t element = neighbours[f][0] >= 0 ? neighbours[f][0] : neighbours[f][1];
+    if (element >= 0) face_flux_loads(mesh, problem, T, f, element, &loads[f * npf]);
+    for (int a = 0; a < npf; ++a) {
+      node_area[mesh.face(f)[a]] += face_areas[f];
+      node_load[mesh.face(f)[a]] += loads[f * npf + a];
+    }
   }
   for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
     if (!problem.boundaries[mesh.face_boundary[f]].is_fixed()) continue;
     double q = 0.0;
     for (int a = 0; a < npf; ++a) {
       const std::int32_t i = mesh.face(f)[a];
-      q += residual[i] * face_areas[f] / node_weight[i];
+      q += loads[f * npf + a] + (residual[i] - node_load[i]) * face_areas[f] / node_area[i];
     }
     boundaries[mesh.face_boundary[f]].heat_rate += q;
   }
@@ -239,17 +240,21 @@ void recover_fluxes(const Mesh& mesh, const ThermalProblem& problem, const std::
   out.cell_flux.assign(3 * mesh.n_tets(), 0.0);
   out.nodal_flux.assign(3 * mesh.n_nodes(), 0.0);
   std::vector<double> weight(mesh.n_nodes(), 0.0);
+  double t_local[max_tet_nodes];
   for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
-    const double k = problem.regions[mesh.tet_region[e]].conductivity;
+    const Conductivity& k = problem.regions[mesh.tet_region[e]].conductivity;
     const TetGeometry g = tet_geometry(mesh, e);
-    const Point c = field_gradient(mesh, g, e, {0.25, 0.25, 0.25}, T);
-    for (int d = 0; d < 3; ++d) out.cell_flux[3 * e + d] = -k * c[d];
+    for (int a = 0; a < npe; ++a) t_local[a] = T[mesh.tet(e)[a]];
+    // q = -K(T) grad T at the centroid (cell field) and at each node of the element.
+    const Point c = conducted_gradient(g, k, t_local, {0.25, 0.25, 0.25});
+    for (int d = 0; d < 3; ++d) out.cell_flux[3 * e + d] = -c[d];
     // Volume-weighted average of the element's own flux at each of its nodes.
     const double w = tet_volume(g);
     for (int a = 0; a < npe; ++a) {
-      const Point q = mesh.order == 1 ? c : field_gradient(mesh, g, e, tet_node_reference(a), T);
+      const bool constant = mesh.order == 1 && !k.depends_on_temperature();
+      const Point q = constant ? c : conducted_gradient(g, k, t_local, tet_node_reference(a));
       const std::int32_t i = mesh.tet(e)[a];
-      for (int d = 0; d < 3; ++d) out.nodal_flux[3 * i + d] += -k * q[d] * w;
+      for (int d = 0; d < 3; ++d) out.nodal_flux[3 * i + d] += -q[d] * w;
       weight[i] += w;
     }
   }
@@ -333,7 +338,11 @@ Results post_process(const Mesh& mesh, const ThermalProblem& problem, const std:
     bfirst[b] = fst;
     if (neighbours[f][0] < 0 || neighbours[f][1] < 0) has_exterior_face[b] = 1;
     const BoundaryCondition& bc = problem.boundaries[b];
-    if (!bc.is_fixed() && !bc.is_insulated()) br.heat_rate += face_heat_in(mesh, f, bc, T);
+    if (!bc.is_fixed() && !bc.is_insulated()) {
+      double t_local[max_face_nodes];
+      for (int a = 0; a < mesh.nodes_per_face(); ++a) t_local[a] = T[mesh.face(f)[a]];
+      br.heat_rate += face_heat_in(g, bc, t_local);
+    }
   }
   for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) {
     out.boundaries[b].internal = !has_exterior_face[b] && out.boundaries[b].area > 0;
@@ -341,7 +350,7 @@ Results post_process(const Mesh& mesh, const ThermalProblem& problem, const std:
   }
   bool any_fixed = false;
   for (const auto& bc : problem.boundaries) any_fixed |= bc.is_fixed();
-  if (any_fixed) add_reaction_heat_rates(mesh, problem, nodal_residual(mesh, problem, T), out.boundaries);
+  if (any_fixed) add_reaction_heat_rates(mesh, problem, nodal_residual(mesh, problem, T), T, neighbours, out.boundaries);
   for (std::size_t b = 0; b < mesh.boundaries.size(); ++b)
     if (out.boundaries[b].internal && !problem.boundaries[b].is_fixed())
       out.boundaries[b].heat_rate = internal_heat_rate(mesh, problem, T, static_cast<std::int32_t>(b), neighbours);

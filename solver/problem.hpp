@@ -8,11 +8,13 @@
 #include <string>
 #include <vector>
 
+#include "solver/material.hpp"
+
 namespace hearth {
 
 struct Convection {
-  double coefficient = 0.0;  // film coefficient h, W/(m2 K)
-  double ambient = 0.0;      // fluid temperature, K
+  PiecewiseLinear coefficient;  // film coefficient h(T_surface), W/(m2 K)
+  double ambient = 0.0;         // fluid temperature, K
 };
 
 // Condition on one named surface. Nothing set: insulated.
@@ -20,14 +22,20 @@ struct BoundaryCondition {
   std::optional<double> temperature;    // fixed temperature, K (excludes the others)
   double heat_flux = 0.0;               // W/m2 into the body
   std::optional<Convection> convection;
+  std::optional<Radiation> radiation;   // grey surface to large surroundings
+  // Fixed temperature varying over the surface, K (verification with closed forms);
+  // takes the place of `temperature` where set.
+  std::function<double(const std::array<double, 3>&)> temperature_field;
 
-  bool is_fixed() const { return temperature.has_value(); }
-  bool is_insulated() const { return !temperature && heat_flux == 0.0 && !convection; }
+  bool is_fixed() const { return temperature.has_value() || bool(temperature_field); }
+  bool is_insulated() const { return !temperature && heat_flux == 0.0 && !convection && !radiation; }
+  // Terms that make the problem nonlinear in T.
+  bool is_nonlinear() const { return radiation || (convection && !convection->coefficient.is_constant()); }
 };
 
 struct RegionProperties {
   std::string material;        // for messages and the summary
-  double conductivity = 0.0;   // W/(m K), isotropic, > 0
+  Conductivity conductivity;   // W/(m K)
   double heat_source = 0.0;    // volumetric source, W/m3
 };
 
@@ -38,6 +46,14 @@ struct ThermalProblem {
   // integrated with a rule of source_field_degree (manufactured-solution checks).
   std::function<double(const std::array<double, 3>&)> source_field;
   int source_field_degree = 6;
+
+  bool is_nonlinear() const {
+    for (const auto& r : regions)
+      if (r.conductivity.depends_on_temperature()) return true;
+    for (const auto& b : boundaries)
+      if (b.is_nonlinear()) return true;
+    return false;
+  }
 };
 
 }  // namespace hearth

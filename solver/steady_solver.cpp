@@ -1,7 +1,8 @@
-// Steady solve: dof map, assembler, linear solver, then fixed values put back.
+// Steady solve: dof map, assembler, linear solver; Newton iterations when nonlinear.
 #include "solver/steady_solver.hpp"
 
 #include <chrono>
+#include <cmath>
 #include <cstdio>
 #include <stdexcept>
 
@@ -14,30 +15,55 @@ namespace {
 double seconds_since(std::chrono::steady_clock::time_point t0) {
   return std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
 }
-std::string format(const char* fmt, double a, double b = 0, double c = 0) {
+std::string format(const char* fmt, double a, double b = 0, double c = 0, double d = 0) {
   char buffer[256];
-  std::snprintf(buffer, sizeof buffer, fmt, a, b, c);
+  std::snprintf(buffer, sizeof buffer, fmt, a, b, c, d);
   return buffer;
+}
+double norm(const std::vector<double>& v) {
+  double s = 0.0;
+  for (double x : v) s += x * x;
+  return std::sqrt(s);
+}
+
+// A start for Newton: the mean of the temperatures the boundaries refer to.
+double reference_temperature(const ThermalProblem& problem) {
+  double sum = 0.0;
+  int count = 0;
+  for (const auto& bc : problem.boundaries) {
+    if (bc.temperature) sum += *bc.temperature, ++count;
+    if (bc.temperature_field) sum += bc.temperature_field({0, 0, 0}), ++count;
+    if (bc.convection) sum += bc.convection->ambient, ++count;
+    if (bc.radiation) sum += bc.radiation->surroundings, ++count;
+  }
+  return count ? sum / count : 293.15;
+}
+
+void report_linear(const std::function<void(const std::string&)>& say, const LinearSolveReport& r) {
+  say("solved with " + r.solver + format(": set-up %.2f s, solve %.2f s, ", r.setup_seconds, r.solve_seconds) +
+      (r.iterations ? std::to_string(r.iterations) + " iterations, " : std::string()) +
+      format("relative residual %.1e", r.relative_residual));
 }
 }  // namespace
 
 bool temperature_is_determined(const Mesh& mesh, const ThermalProblem& problem) {
   for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
     const BoundaryCondition& bc = problem.boundaries[mesh.face_boundary[f]];
-    if (bc.is_fixed() || bc.convection) return true;
+    if (bc.is_fixed() || bc.convection || bc.radiation) return true;
   }
   return false;
 }
 
 SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, const LinearSolverSettings& settings,
-                            const std::function<void(const std::string&)>& progress) {
+                            const std::function<void(const std::string&)>& progress,
+                            const NonlinearSettings& nonlinear) {
   auto say = [&](const std::string& line) {
     if (progress) progress(line);
   };
   if (!temperature_is_determined(mesh, problem))
     throw std::invalid_argument(
-        "no fixed temperature or convection on any surface: the steady temperature is undetermined; "
-        "add a 'temperature' or 'convection' condition to at least one boundary");
+        "no fixed temperature, convection or radiation on any surface: the steady temperature is undetermined; "
+        "add a 'temperature', 'convection' or 'radiation' condition to at least one boundary");
   const auto t0 = std::chrono::steady_clock::now();
   SteadySolution solution;
   const DofMap dofs = make_dof_map(mesh, problem);
@@ -54,22 +80,89 @@ SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, con
   const double pattern_seconds = seconds_since(t_pattern);
   CsrMatrix A;
   std::vector<double> b;
-  const auto t_assembly = std::chrono::steady_clock::now();
-  assembler.assemble(problem, A, b);
-  solution.assembly_seconds = seconds_since(t_assembly);
-  say(format("assembled %.0f unknowns, %.0f nonzeros (pattern %.2f s, ", dofs.n_free(), double(A.nnz()),
-             pattern_seconds) +
-      format("assembly %.3f s)", solution.assembly_seconds));
 
-  auto linear = make_linear_solver(settings, dofs.n_free());
-  linear->setup(A);
-  std::vector<double> x(dofs.n_free(), 0.0);
-  solution.linear = linear->solve(b, x);
-  say("solved with " + solution.linear.solver +
-      format(": set-up %.2f s, solve %.2f s, ", solution.linear.setup_seconds, solution.linear.solve_seconds) +
-      (solution.linear.iterations ? std::to_string(solution.linear.iterations) + " iterations, " : std::string()) +
-      format("relative residual %.1e", solution.linear.relative_residual));
-  for (std::int32_t r = 0; r < dofs.n_free(); ++r) solution.temperature[dofs.free_nodes[r]] = x[r];
+  if (!problem.is_nonlinear()) {  // one linear solve
+    const auto t_assembly = std::chrono::steady_clock::now();
+    assembler.assemble(problem, A, b);
+    solution.assembly_seconds = seconds_since(t_assembly);
+    say(format("assembled %.0f unknowns, %.0f nonzeros (pattern %.2f s, assembly %.3f s)", dofs.n_free(),
+               double(A.nnz()), pattern_seconds, solution.assembly_seconds));
+    auto linear = make_linear_solver(settings, dofs.n_free());
+    linear->setup(A);
+    std::vector<double> x(dofs.n_free(), 0.0);
+    solution.linear = linear->solve(b, x);
+    solution.linear_iterations = solution.linear.iterations;
+    report_linear(say, solution.linear);
+    for (std::int32_t r = 0; r < dofs.n_free(); ++r) solution.temperature[dofs.free_nodes[r]] = x[r];
+    solution.seconds = seconds_since(t0);
+    return solution;
+  }
+
+  // Newton on R(T) = 0 over the free temperatures. The exact Jacobian is symmetric
+  // unless some conductivity depends on temperature.
+  bool symmetric = true;
+  for (const auto& r : problem.regions) symmetric &= !r.conductivity.depends_on_temperature();
+  auto linear = make_linear_solver(settings, dofs.n_free(), symmetric);
+  std::vector<double>& T = solution.temperature;
+  const double guess = reference_temperature(problem);
+  for (std::int32_t r = 0; r < dofs.n_free(); ++r) T[dofs.free_nodes[r]] = guess;
+  say(format("nonlinear problem: Newton's method from %.2f K (first step Picard), %s Jacobian", guess) +
+      (symmetric ? "symmetric" : "non-symmetric"));
+
+  std::vector<double> R, R_try, delta(dofs.n_free()), T_try;
+  double r0 = 0.0, last_update = INFINITY, t_max = 0.0;
+  solution.nonlinear_converged = false;
+  for (int it = 0; it <= nonlinear.max_iterations; ++it) {
+    const JacobianKind kind = it == 0 ? JacobianKind::picard : JacobianKind::exact;
+    const auto t_assembly = std::chrono::steady_clock::now();
+    assembler.assemble_terms(problem, T, kind, &A, R);
+    solution.assembly_seconds += seconds_since(t_assembly);
+    const double r_norm = norm(R);
+    if (it == 0) r0 = std::max(r_norm, 1e-300);
+    t_max = 0.0;
+    for (double t : T) t_max = std::max(t_max, std::abs(t));
+    if (it > 0 && r_norm <= nonlinear.tolerance * r0 && last_update <= nonlinear.tolerance * t_max) {
+      solution.nonlinear_converged = true;
+      break;
+    }
+    if (it == nonlinear.max_iterations) break;
+    for (double& v : R) v = -v;
+    linear->setup(A);
+    std::fill(delta.begin(), delta.end(), 0.0);
+    solution.linear = linear->solve(R, delta);
+    solution.linear_iterations += solution.linear.iterations;
+    if (!solution.linear.converged()) break;
+    // Backtracking line search on |R| (Armijo with c = 1e-4); the Picard start is taken whole.
+    double alpha = 1.0, r_try = 0.0;
+    for (int halving = 0; halving <= 8; ++halving, alpha *= 0.5) {
+      T_try = T;
+      for (std::int32_t r = 0; r < dofs.n_free(); ++r) T_try[dofs.free_nodes[r]] += alpha * delta[r];
+      if (it == 0) break;
+      assembler.assemble_terms(problem, T_try, kind, nullptr, R_try);
+      r_try = norm(R_try);
+      if (r_try <= (1.0 - 1e-4 * alpha) * r_norm) break;
+    }
+    last_update = 0.0;
+    for (std::int32_t r = 0; r < dofs.n_free(); ++r) last_update = std::max(last_update, std::abs(alpha * delta[r]));
+    T.swap(T_try);
+    solution.nonlinear_iterations = it + 1;
+    solution.history.push_back({r_norm, r_norm / r0, last_update, alpha, solution.linear.iterations});
+    say(format("newton %2.0f: residual %.3e W (relative %.2e), update %.3e K", it + 1, r_norm, r_norm / r0,
+               last_update) +
+        format(", step factor %.3g", alpha) +
+        (solution.linear.iterations ? ", " + std::to_string(solution.linear.iterations) + " linear iterations" : ""));
+  }
+  if (!solution.nonlinear_converged && solution.linear.converged()) {
+    const auto& last = solution.history.empty() ? NewtonStep{} : solution.history.back();
+    solution.nonlinear_message = format("Newton's method did not converge in %.0f iterations (relative residual %.2e, "
+                                        "last update %.3g K, tolerance %.1e)",
+                                        nonlinear.max_iterations, last.relative_residual, last.update,
+                                        nonlinear.tolerance) +
+                                 "; try more solver.nonlinear.max_iterations, a finer mesh, or check the property "
+                                 "tables and film coefficients for steps and extreme values";
+  }
+  if (!solution.linear.converged()) solution.nonlinear_message = solution.linear.message;
+  report_linear(say, solution.linear);
   solution.seconds = seconds_since(t0);
   return solution;
 }

@@ -1,4 +1,5 @@
-// Steady linear conduction: assemble, solve, expand to all nodes.
+// Steady conduction: one linear solve for linear problems, Newton's method (Picard
+// start, backtracking line search) when k(T), h(T) or radiation make it nonlinear.
 #pragma once
 
 #include <functional>
@@ -11,24 +12,44 @@
 
 namespace hearth {
 
-struct SteadySolution {
-  std::vector<double> temperature;  // K, one per mesh node
-  LinearSolveReport linear;
-  std::int64_t dofs = 0;            // free unknowns in the linear system
-  double assembly_seconds = 0.0;
-  double seconds = 0.0;             // pattern + assembly + solve
-  bool converged() const { return linear.converged(); }
+struct NonlinearSettings {
+  // Converged when |R| <= tolerance * |R(T0)| and the last update <= tolerance * max|T|.
+  double tolerance = 1e-8;
+  int max_iterations = 30;
 };
 
-// Solves -div(k grad T) = f with the problem's boundary conditions. Throws
-// std::invalid_argument when the temperature is undetermined (no fixed temperature or
-// convection anywhere). A linear solver that does not converge is reported in the
-// returned value (linear.status), with the best temperature it reached.
-SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, const LinearSolverSettings& settings,
-                            const std::function<void(const std::string&)>& progress = {});
+struct NewtonStep {
+  double residual = 0.0;        // |R| (W) at the start of the step
+  double relative_residual = 0.0;
+  double update = 0.0;          // max |alpha delta T| (K)
+  double step = 1.0;            // line-search factor alpha
+  int linear_iterations = 0;
+};
 
-// True when some boundary fixes the temperature level (fixed temperature or convection
-// on faces that exist in the mesh).
+struct SteadySolution {
+  std::vector<double> temperature;  // K, one per mesh node
+  LinearSolveReport linear;         // the last linear solve
+  std::int64_t dofs = 0;            // free unknowns in the linear system
+  int linear_iterations = 0;        // summed over Newton steps
+  int nonlinear_iterations = 0;     // 0 for a linear problem
+  bool nonlinear_converged = true;
+  std::string nonlinear_message;    // why, when not converged
+  std::vector<NewtonStep> history;  // one entry per Newton step
+  double assembly_seconds = 0.0;
+  double seconds = 0.0;             // pattern + assembly + solve
+  bool converged() const { return linear.converged() && nonlinear_converged; }
+};
+
+// Solves -div(K(T) grad T) = f with the problem's boundary conditions. Throws
+// std::invalid_argument when the temperature is undetermined (no fixed temperature,
+// convection or radiation anywhere). Non-convergence is reported in the returned value,
+// with the last iterate as the temperature.
+SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, const LinearSolverSettings& settings,
+                            const std::function<void(const std::string&)>& progress = {},
+                            const NonlinearSettings& nonlinear = {});
+
+// True when some boundary fixes the temperature level (fixed temperature, convection or
+// radiation on faces that exist in the mesh).
 bool temperature_is_determined(const Mesh& mesh, const ThermalProblem& problem);
 
 }  // namespace hearth

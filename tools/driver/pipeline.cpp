@@ -81,9 +81,10 @@ void check_names_against_mesh(const Case& c, const Mesh& mesh) {
   const std::vector<bool> internal = internal_boundaries(mesh);
   for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) {
     const auto it = c.boundaries.find(mesh.boundaries[b].name);
-    if (internal[b] && it != c.boundaries.end() && (it->second.convection || it->second.heat_flux))
+    if (internal[b] && it != c.boundaries.end() &&
+        (it->second.convection || it->second.heat_flux || it->second.radiation))
       throw InputError(it->second.place.str() + ": '" + it->first +
-                       "' is an internal surface (material on both sides): convection and heat_flux act on outer "
+                       "' is an internal surface (material on both sides): convection, radiation and heat_flux act on outer "
                        "surfaces only; remove the condition to get the heat rate across it");
   }
   for (const auto& region : mesh.regions)
@@ -114,6 +115,7 @@ ThermalProblem make_problem(const Case& c, const Mesh& mesh) {
     bc.temperature = spec.temperature;
     bc.heat_flux = spec.heat_flux.value_or(0.0);
     if (spec.convection) bc.convection = Convection{spec.convection->coefficient, spec.convection->ambient};
+    bc.radiation = spec.radiation;
   }
   return problem;
 }
@@ -124,6 +126,13 @@ LinearSolverSettings linear_settings(const Case& c) {
            : c.solver.linear == "iterative" ? LinearSolverKind::iterative
                                             : LinearSolverKind::automatic;
   s.tolerance = c.solver.tolerance;
+  return s;
+}
+
+NonlinearSettings nonlinear_settings(const Case& c) {
+  NonlinearSettings s;
+  s.tolerance = c.solver.nonlinear_tolerance;
+  s.max_iterations = c.solver.nonlinear_max_iterations;
   return s;
 }
 
@@ -139,6 +148,7 @@ std::vector<std::string> describe_conditions(const Mesh& mesh, const ThermalProb
     std::string d;
     if (bc.is_fixed()) d = "temperature";
     if (bc.convection) d = "convection";
+    if (bc.radiation) d += d.empty() ? "radiation" : "+radiation";
     if (bc.heat_flux != 0.0) d += d.empty() ? "heat_flux" : "+heat_flux";
     out.push_back(d.empty() ? "insulated" : d);
   }
@@ -156,8 +166,8 @@ std::vector<std::string> insulated_boundaries(const Case& c, const Mesh& mesh) {
 void check_determined(const Case& c, const Mesh& mesh, const ThermalProblem& problem) {
   if (!temperature_is_determined(mesh, problem))
     throw InputError(c.boundaries_place.str() +
-                     ": no fixed temperature or convection on any surface: the steady temperature is undetermined; "
-                     "add a 'temperature' or 'convection' condition to at least one boundary");
+                     ": no fixed temperature, convection or radiation on any surface: the steady temperature is "
+                     "undetermined; add a 'temperature' or 'convection' condition to at least one boundary");
 }
 
 std::vector<ProbeRecord> sample_probes(const Case& c, const Mesh& mesh, const std::vector<double>& temperature) {

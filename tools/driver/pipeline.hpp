@@ -10,6 +10,7 @@
 #include "mesh/mesh.hpp"
 #include "solver/linear_solver.hpp"
 #include "solver/problem.hpp"
+#include "solver/steady_solver.hpp"
 #include "tools/driver/progress.hpp"
 
 namespace hearth {
@@ -36,6 +37,7 @@ void check_determined(const Case& c, const Mesh& mesh, const ThermalProblem& pro
 
 ThermalProblem make_problem(const Case& c, const Mesh& mesh);
 LinearSolverSettings linear_settings(const Case& c);
+NonlinearSettings nonlinear_settings(const Case& c);
 
 // Human description of each boundary's condition, e.g. "convection+heat_flux".
 std::vector<std::string> describe_conditions(const Mesh& mesh, const ThermalProblem& problem);

@@ -78,15 +78,17 @@ int run_command(const CommonOptions& options) {
 
   RunRecord record = start_record(c, mesh);
   SteadySolution solution;
-  solution = solve_steady(mesh, problem, linear_settings(c), [&](const std::string& s) { progress.say(s); });
+  solution = solve_steady(mesh, problem, linear_settings(c), [&](const std::string& s) { progress.say(s); },
+                          nonlinear_settings(c));
   check_interrupt("after the solve; nothing was written");
   record.dofs = solution.dofs;
   record.linear_solver = solution.linear.solver;
-  record.linear_iterations = solution.linear.iterations;
+  record.linear_iterations = solution.linear_iterations;
+  record.nonlinear_iterations = solution.nonlinear_iterations;
   record.linear_relative_residual = solution.linear.relative_residual;
   record.seconds = solution.seconds;
   record.converged = solution.converged();
-  record.failure = solution.linear.message;
+  record.failure = solution.nonlinear_message.empty() ? solution.linear.message : solution.nonlinear_message;
   record.boundary_conditions = describe_conditions(mesh, problem);
   if (record.linear_solver == "cholmod" && record.blas.find("OpenBLAS") == std::string::npos)
     record.warnings.push_back("the direct solver runs on a slow BLAS (" + record.blas +
@@ -108,9 +110,10 @@ int run_command(const CommonOptions& options) {
   else
     for (const auto& w : record.warnings) progress.always("warning: " + w);
   if (!record.converged)
-    throw SolveFailed("the linear solve did not converge: " + record.failure +
-                      "; results marked unconverged are in " + out.string() +
-                      ". Try solver.linear: direct, or check for very large conductivity contrasts");
+    throw SolveFailed("the solve did not converge: " + record.failure + "; results marked unconverged are in " +
+                      out.string() + (solution.nonlinear_message.empty()
+                                          ? ". Try solver.linear: direct, or check for very large conductivity contrasts"
+                                          : ""));
   return exit_done;
 }
 
