@@ -24,6 +24,14 @@ struct ServiceRecord {
   double limit = 0.0;                // K
 };
 
+// A surface people may touch, against the touch limit.
+struct TouchRecord {
+  std::string surface;
+  double max = 0.0;                  // K, hottest node of the surface
+  std::array<double, 3> location{};  // m
+  double limit = 0.0;                // K
+};
+
 struct RunRecord {
   std::string title;
   std::string case_file;
@@ -47,6 +55,7 @@ struct RunRecord {
   std::vector<std::string> boundary_conditions;  // per boundary: "temperature", "convection+heat_flux", "insulated", ...
   std::vector<ProbeRecord> probes;
   std::vector<ServiceRecord> service;
+  std::vector<TouchRecord> touch;
   std::vector<std::string> warnings;
 };
 

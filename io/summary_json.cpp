@@ -71,6 +71,12 @@ nlohmann::json summary_json(const RunRecord& r, const Units& units) {
                                           {"location", location_json(s.location, units)},
                                           {"limit", units.from_kelvin(s.limit)},
                                           {"exceeded", s.max > s.limit}};
+  for (const auto& t : r.touch)
+    j["safety"]["touch"][t.surface] = {{"max", units.from_kelvin(t.max)},
+                                       {"location", location_json(t.location, units)},
+                                       {"limit", units.from_kelvin(t.limit)},
+                                       {"exceeded", t.max > t.limit},
+                                       {"first_exceeded_time", nullptr}};  // steady: no time
   j["warnings"] = r.warnings;
   return j;
 }

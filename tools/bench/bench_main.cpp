@@ -6,7 +6,7 @@
 // of assembly + solve per unknown, measured after handing freed memory back (Gmsh's own excluded).
 //
 //   hearth_bench [--order 1|2] [--sizes 0.05,0.03,...] [--solvers direct,iterative]
-//                [--direct-limit N] [--repeat R]
+//                [--direct-limit N] [--repeat R] [--newton on]
 #include <omp.h>
 #include <malloc.h>
 #include <unistd.h>
@@ -24,6 +24,7 @@
 #include "solver/assembler.hpp"
 #include "solver/dof_map.hpp"
 #include "solver/linear_solver.hpp"
+#include "solver/steady_solver.hpp"
 
 namespace {
 
@@ -98,12 +99,14 @@ int main(int argc, char** argv) {
   std::vector<double> sizes = {0.08, 0.05, 0.03, 0.02, 0.0135};
   std::vector<std::string> solvers = {"direct", "iterative"};
   std::int64_t direct_limit = 250000;
+  bool newton = false;
   for (int i = 1; i + 1 < argc; i += 2) {
     const std::string key = argv[i], value = argv[i + 1];
     if (key == "--order") order = std::stoi(value);
     else if (key == "--sizes") sizes = parse_list(value);
     else if (key == "--repeat") repeat = std::stoi(value);
     else if (key == "--direct-limit") direct_limit = std::stoll(value);
+    else if (key == "--newton") newton = value == "on";
     else if (key == "--solvers") {
       solvers.clear();
       std::stringstream in(value);
@@ -135,6 +138,29 @@ int main(int argc, char** argv) {
     problem.regions = {RegionProperties{"unit", 1.0, 1.0}};
     problem.boundaries.resize(mesh.boundaries.size());
     problem.boundaries[0].temperature = 0.0;
+    if (newton) {
+      // Nonlinear figures: the same box with k(T) = 1 + T/1000 (T in K, a table) and the
+      // source raised so that k varies by half, against the linear problem on the same mesh.
+      ThermalProblem nonlinear = problem;
+      nonlinear.regions[0].conductivity = Conductivity::isotropic(PiecewiseLinear({0.0, 3000.0}, {1.0, 4.0}));
+      nonlinear.boundaries[0].temperature = 300.0;
+      nonlinear.regions[0].heat_source = 2000.0;  // about 600 K of rise: k changes by half
+      LinearSolverSettings settings;
+      settings.tolerance = 1e-8;
+      const auto t_linear = Clock::now();
+      const SteadySolution lin = solve_steady(mesh, problem, settings);
+      const double linear_seconds = seconds_since(t_linear);
+      const auto t_newton = Clock::now();
+      const SteadySolution non = solve_steady(mesh, nonlinear, settings);
+      const double newton_seconds = seconds_since(t_newton);
+      std::printf("%8.4f %9zu %9zu %8.2f | linear %s %.2f s (%d iterations) | k(T) Newton: %d steps, %s, %d linear "
+                  "iterations in all, %.2f s (%.1f x the linear solve)%s\n",
+                  size, mesh.n_nodes(), mesh.n_tets(), mesh_seconds, lin.linear.solver.c_str(), linear_seconds,
+                  lin.linear_iterations, non.nonlinear_iterations, non.linear.solver.c_str(), non.linear_iterations,
+                  newton_seconds, newton_seconds / linear_seconds, non.converged() ? "" : " NOT CONVERGED");
+      std::fflush(stdout);
+      continue;
+    }
     for (const auto& name : solvers) {
       const bool direct = name == "direct";
       const DofMap dofs = make_dof_map(mesh, problem);

@@ -78,6 +78,10 @@ void check_names_against_mesh(const Case& c, const Mesh& mesh) {
     if (index_of(mesh.boundaries, name) < 0)
       throw InputError(spec.place.str() + ": the geometry has no surface named '" + name +
                        "'; its surfaces are: " + surfaces);
+  for (const auto& name : c.touch_surfaces)
+    if (index_of(mesh.boundaries, name) < 0)
+      throw InputError(c.safety_place.str() + ".touch_surfaces: the geometry has no surface named '" + name +
+                       "'; its surfaces are: " + surfaces);
   const std::vector<bool> internal = internal_boundaries(mesh);
   for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) {
     const auto it = c.boundaries.find(mesh.boundaries[b].name);
@@ -246,6 +250,28 @@ std::vector<ServiceRecord> service_checks(const Case& c, const Mesh& mesh, const
       warnings.push_back(w.str());
     }
     out.push_back(record);
+  }
+  return out;
+}
+
+std::vector<TouchRecord> touch_checks(const Case& c, const Mesh& mesh, const Results& results,
+                                      std::vector<std::string>& warnings) {
+  std::vector<TouchRecord> out;
+  for (const auto& name : c.touch_surfaces) {
+    const int b = index_of(mesh.boundaries, name);
+    if (b < 0) continue;  // checked against the mesh before the solve
+    const BoundaryResult& r = results.boundaries[b];
+    out.push_back({name, r.temperature.max, r.hottest, c.touch_limit});
+    if (r.temperature.max > c.touch_limit) {
+      const double s = 1.0 / c.units.metres_per_length();
+      std::ostringstream w;
+      w << "surface '" << name << "' reaches " << fmt("%.1f", c.units.from_kelvin(r.temperature.max)) << " "
+        << c.units.temperature << ", " << fmt("%.1f", r.temperature.max - c.touch_limit)
+        << " K above the touch limit " << fmt("%.1f", c.units.from_kelvin(c.touch_limit)) << " at [" << r.hottest[0] * s
+        << ", " << r.hottest[1] * s << ", " << r.hottest[2] * s << "] " << c.units.length
+        << ": guard it or insulate it (burn risk)";
+      warnings.push_back(w.str());
+    }
   }
   return out;
 }

@@ -54,6 +54,10 @@ std::vector<std::vector<LineSample>> sample_lines(const Case& c, const Mesh& mes
 std::vector<ServiceRecord> service_checks(const Case& c, const Mesh& mesh, const ThermalProblem& problem,
                                           const std::vector<double>& temperature, std::vector<std::string>& warnings);
 
+// Touch-limit records and warnings for the case's touch_surfaces.
+std::vector<TouchRecord> touch_checks(const Case& c, const Mesh& mesh, const Results& results,
+                                      std::vector<std::string>& warnings);
+
 // The output folder: --out, else output.directory. InputError if it would hold the inputs.
 std::filesystem::path output_directory(const Case& c, const CommonOptions& options);
 

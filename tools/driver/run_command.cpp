@@ -98,6 +98,7 @@ int run_command(const CommonOptions& options) {
   record.probes = sample_probes(c, mesh, solution.temperature);
   const auto lines = sample_lines(c, mesh, solution.temperature, record.warnings);
   record.service = service_checks(c, mesh, problem, solution.temperature, record.warnings);
+  record.touch = touch_checks(c, mesh, record.results, record.warnings);
   const auto insulated = insulated_boundaries(c, mesh);
   progress.say("post-processed heat rates, balance, probes and lines");
 
