@@ -7,14 +7,20 @@
 
 #include <yaml-cpp/yaml.h>
 
+#include <Eigen/Eigenvalues>
 #include <cmath>
+#include <cstdio>
 #include <fstream>
 #include <map>
+#include <optional>
+#include <set>
 #include <sstream>
 
 #include "io/case_schema.hpp"
 #include "io/input_error.hpp"
+#include "io/material_library.hpp"
 #include "io/text_distance.hpp"
+#include "io/yaml_values.hpp"
 
 namespace hearth {
 
@@ -56,6 +62,19 @@ struct Reader {
   std::string file;                           // as the user gave it
   std::map<std::string, std::string> set_by;  // dotted key -> the --set KEY that made it
   Units units;
+  mutable std::optional<MaterialLibrary> library_cache;  // read on first use of 'library:'
+
+  // The material library, read once; a failure to find or read it is reported at `where`.
+  const MaterialLibrary& library(const Place& where) const {
+    if (!library_cache) {
+      try {
+        library_cache = load_material_library();
+      } catch (const InputError& e) {
+        fail(where, std::string("the material library could not be read: ") + e.what());
+      }
+    }
+    return *library_cache;
+  }
 
   Place place(const YAML::Node& key_node, const std::string& key) const {
     Place p;
@@ -95,6 +114,7 @@ struct Reader {
       case KeyKind::path: text = "a file or folder name"; break;
       case KeyKind::point: text = "a point [x, y, z]"; break;
       case KeyKind::number_list: text = "a list of numbers [a, b, ...]"; break;
+      case KeyKind::name_list: text = "a list of names [a, b, ...]"; break;
       case KeyKind::section: text = "keys under it"; break;
       case KeyKind::names: text = "name: value entries under it"; break;
     }
@@ -102,6 +122,9 @@ struct Reader {
     if (!range.empty() && spec.kind != KeyKind::choice) text += " " + range;
     const std::string unit = unit_of(spec);
     if (!unit.empty()) text += " (" + unit + ")";
+    const std::vector<std::string> forms = split_choices(spec.forms);
+    for (std::size_t i = 0; i < forms.size(); ++i)
+      text += (i + 1 == forms.size() ? " or " : ", ") + form_syntax(forms[i]);
     return text;
   }
 };
@@ -318,32 +341,37 @@ double number_or_fail(const Reader& reader, const YAML::Node& value, const Place
   return x;
 }
 
-// A number given as a map ({vs_temperature: ...}) or a list (a table).
+// A number given as a map ({vs_temperature: ...}) or a list. Returns if the map is a
+// form the key accepts (its contents are checked when the Case is built); else fails:
+// a form this build does not have yet, or no form at all.
 void check_number_form(const Reader& reader, const YAML::Node& value, const Place& where,
                        const KeySpec& spec) {
   const std::vector<std::string> later = split_choices(spec.not_yet);
+  const std::vector<std::string> accepted = split_choices(spec.forms);
   const std::string name = last_key_part(spec.key) == "*" ? "this value" : last_key_part(spec.key);
-  const std::string fix = "; give a constant, " + reader.expected(spec);
   if (value.IsSequence()) {
-    if (contains(later, "table"))
-      reader.fail(where, name + " as a table of values is not supported by this version of hearth yet" + fix);
-    reader.fail(where, "a list is not allowed here; expected " + reader.expected(spec));
+    const std::string table = contains(accepted, "vs_temperature")
+                                  ? "; write a table in temperature as " + form_syntax("vs_temperature")
+                                  : "";
+    reader.fail(where, "a list is not allowed here; expected " + reader.expected(spec) + table);
   }
-  std::vector<std::string> forms;
-  for (const std::string& form : later)
-    if (form != "table") forms.push_back(form);
   // A form may bring companion keys ({principal: ..., axis_1: ..., axis_2: ...}): the
   // form's own key decides.
   const std::vector<Entry> items = entries(reader, value, where);
   for (const Entry& item : items)
-    if (contains(forms, item.name))
-      reader.fail(where, name + " as {" + item.name + ": ...} is not supported by this version of hearth yet" + fix);
+    if (contains(later, item.name))
+      reader.fail(where, name + " as {" + item.name + ": ...} is not supported by this version of hearth yet; give " +
+                             reader.expected(spec));
+  for (const Entry& item : items)
+    if (contains(accepted, item.name)) return;
+  std::vector<std::string> forms = accepted;
+  forms.insert(forms.end(), later.begin(), later.end());
   for (const Entry& item : items) {
     const std::string hint = suggestion(item.name, forms);
     reader.fail(where, "'" + item.name + "' is not a form of " + name + "; " +
                            (hint.empty() ? "expected " + reader.expected(spec) : hint));
   }
-  reader.fail(where, "expected " + reader.expected(spec) + ", found keys");
+  reader.fail(where, "expected " + reader.expected(spec) + ", found empty keys {}");
 }
 
 void check_value(const Reader& reader, const Entry& entry, const std::string& key,
@@ -367,7 +395,10 @@ void check_value(const Reader& reader, const Entry& entry, const std::string& ke
 
   switch (spec.kind) {
     case KeyKind::number:
-      if (value.IsMap() || value.IsSequence()) check_number_form(reader, value, where, spec);
+      if (value.IsMap() || value.IsSequence()) {
+        check_number_form(reader, value, where, spec);
+        return;
+      }
       number_or_fail(reader, value, where, spec);
       return;
     case KeyKind::integer: {
@@ -418,6 +449,13 @@ void check_value(const Reader& reader, const Entry& entry, const std::string& ke
       if (!value.IsSequence())
         reader.fail(where, "expected a list [a, b, ...] (" + reader.unit_of(spec) + "), found " + describe_scalar(value));
       for (const auto& item : value) number_or_fail(reader, item, where, spec);
+      return;
+    case KeyKind::name_list:
+      if (!value.IsSequence())
+        reader.fail(where, "expected " + reader.expected(spec) + ", found " + describe_scalar(value));
+      for (const auto& item : value)
+        if (!item.IsScalar() || item.Scalar().empty())
+          reader.fail(place_at(where, item), "expected a name in the list, found " + yaml_text(item));
       return;
     case KeyKind::section:
     case KeyKind::names:
@@ -508,13 +546,239 @@ void read_geometry_and_mesh(const Reader& reader, const YAML::Node& root, Case& 
   }
 }
 
+// ---------------------------------------------------------------------------------
+// Conductivity forms: a number, {vs_temperature: ...}, {principal: ..., axis_1: ...,
+// axis_2: ...} and {tensor: ...}. The schema check has made sure that a map holds one
+// of the form keys and none that this build lacks; the rest is checked here.
+
+using Vector3 = std::array<double, 3>;
+
+std::string number_text(double x) {
+  if (x == 0.0) x = 0.0;  // no "-0"
+  char text[32];
+  std::snprintf(text, sizeof text, "%.6g", x);
+  return text;
+}
+
+// A unit vector for messages, without round-off dust ("0", not "1.2e-17").
+std::string vector_text(const Vector3& v) {
+  auto clean = [](double x) { return number_text(std::abs(x) < 1e-12 ? 0.0 : x); };
+  return "[" + clean(v[0]) + ", " + clean(v[1]) + ", " + clean(v[2]) + "]";
+}
+
+double dot(const Vector3& a, const Vector3& b) { return a[0] * b[0] + a[1] * b[1] + a[2] * b[2]; }
+
+Vector3 cross(const Vector3& a, const Vector3& b) {
+  return {a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]};
+}
+
+const TableColumns conductivity_columns{"T", "k", "W/(m K)"};
+
+// Keys of a form's map other than `allowed` are errors naming the nearest allowed key.
+void only_keys(const Reader& reader, const std::vector<Entry>& items, const std::vector<std::string>& allowed,
+               const std::string& key, const std::string& form) {
+  for (const Entry& item : items) {
+    if (contains(allowed, item.name)) continue;
+    Place where = reader.place(item.key, key);
+    const std::string hint = suggestion(item.name, allowed);
+    reader.fail(where, "'" + item.name + "' does not belong in " + form + "; " +
+                           (hint.empty() ? "its keys are " + join(allowed) : hint));
+  }
+}
+
+// A principal value: a number > 0 or {vs_temperature: [[T, k], ...]}.
+PiecewiseLinear read_principal_value(const Reader& reader, const YAML::Node& value, const Place& where,
+                                     std::size_t index) {
+  const std::string name = "principal value " + std::to_string(index + 1) + " of 3";
+  if (value.IsMap()) {
+    const std::vector<Entry> items = entries(reader, value, where);
+    if (items.size() == 1 && items[0].name == "vs_temperature")
+      return read_temperature_table(items[0].value, reader.place(items[0].key, where.key + ".vs_temperature"),
+                                    reader.units, conductivity_columns);
+  }
+  const std::optional<double> k = yaml_number(value);
+  if (!k)
+    reader.fail(place_at(where, value), name + ": expected a number > 0 (W/(m K)) or " +
+                                            form_syntax("vs_temperature") + ", found " + yaml_text(value));
+  if (!(*k > 0.0))
+    reader.fail(place_at(where, value), name + " = " + value.Scalar() + " is not allowed; must be > 0 (W/(m K))");
+  return PiecewiseLinear(*k);
+}
+
+// A direction [x, y, z], normalised.
+Vector3 read_axis(const Reader& reader, const Entry& entry, const Place& where) {
+  const YAML::Node& value = entry.value;
+  const std::string expected = "expected a direction [x, y, z] (three numbers, in the global axes of the geometry)";
+  if (!value.IsSequence() || value.size() != 3)
+    reader.fail(where, expected + ", found " + (value.IsSequence() ? std::to_string(value.size()) + " values" : yaml_text(value)));
+  Vector3 a{};
+  for (std::size_t i = 0; i < 3; ++i) {
+    const std::optional<double> x = yaml_number(value[i]);
+    if (!x) reader.fail(where, expected + "; '" + yaml_text(value[i]) + "' is not a finite number");
+    a[i] = *x;
+  }
+  const double length = std::sqrt(dot(a, a));
+  if (!(length > 0.0) || !std::isfinite(length))
+    reader.fail(where, yaml_text(value) + " is not a direction (zero length); give a non-zero vector, e.g. [1, 0, 0]");
+  for (double& x : a) x /= length;
+  return a;
+}
+
+Conductivity read_orthotropic(const Reader& reader, const Entry& conductivity, const std::vector<Entry>& items,
+                              const std::string& key, std::vector<std::string>& warnings) {
+  only_keys(reader, items, {"principal", "axis_1", "axis_2"}, key, "{principal: ..., axis_1: ..., axis_2: ...}");
+  const Place where = reader.place(conductivity.key, key);
+  const std::optional<Entry> principal = find_entry(conductivity.value, "principal");
+  const std::optional<Entry> axis_1 = find_entry(conductivity.value, "axis_1");
+  const std::optional<Entry> axis_2 = find_entry(conductivity.value, "axis_2");
+  const Place principal_place = reader.place(principal->key, key + ".principal");
+  if (!principal->value.IsSequence() || principal->value.size() != 3)
+    reader.fail(principal_place, "expected three principal values [k1, k2, k3] (W/(m K)) along axis_1, axis_2 and "
+                                 "axis_3 = axis_1 x axis_2, found " +
+                                     (principal->value.IsSequence() ? std::to_string(principal->value.size()) + " values"
+                                                                    : yaml_text(principal->value)));
+  std::array<PiecewiseLinear, 3> k;
+  for (std::size_t i = 0; i < 3; ++i) k[i] = read_principal_value(reader, principal->value[i], principal_place, i);
+
+  if (!axis_1 || !axis_2) {
+    Place missing = where;
+    missing.key = key + (axis_1 ? ".axis_2" : ".axis_1");
+    reader.fail(missing, "required key is missing; the orthotropic form needs axis_1 and axis_2, the directions of "
+                         "the first two principal values in the global axes (axis_3 = axis_1 x axis_2); for principal "
+                         "values along x, y and z write axis_1: [1, 0, 0], axis_2: [0, 1, 0]");
+  }
+  const Place place_1 = reader.place(axis_1->key, key + ".axis_1");
+  const Place place_2 = reader.place(axis_2->key, key + ".axis_2");
+  const Vector3 a1 = read_axis(reader, *axis_1, place_1);
+  const Vector3 given_2 = read_axis(reader, *axis_2, place_2);
+  // Gram-Schmidt: remove axis_2's component along axis_1.
+  const double along = dot(a1, given_2);
+  Vector3 a2{given_2[0] - along * a1[0], given_2[1] - along * a1[1], given_2[2] - along * a1[2]};
+  const double across = std::sqrt(dot(a2, a2));  // sine of the angle between them
+  if (across < 1e-6)
+    reader.fail(place_2, yaml_text(axis_2->value) + " is parallel to axis_1 " + yaml_text(axis_1->value) +
+                             "; axis_2 must be a second principal direction at right angles to axis_1");
+  for (double& x : a2) x /= across;
+  if (std::abs(along) > 1e-9) {
+    const double degrees = std::acos(std::max(-1.0, std::min(1.0, along))) * 180.0 / 3.14159265358979323846;
+    warnings.push_back(place_2.str() + ": " + yaml_text(axis_2->value) + " is not at right angles to axis_1 " +
+                       yaml_text(axis_1->value) + " (" + number_text(degrees) +
+                       " degrees apart); made orthogonal to it (Gram-Schmidt): axis_2 = " + vector_text(a2));
+  }
+  const Vector3 a3 = cross(a1, a2);
+  Matrix3 axes{};
+  axes[0] = a1;
+  axes[1] = a2;
+  axes[2] = a3;
+  return Conductivity::orthotropic(std::move(k), axes);
+}
+
+Conductivity read_tensor(const Reader& reader, const Entry& tensor, const std::string& key) {
+  const Place where = reader.place(tensor.key, key);
+  const YAML::Node& rows = tensor.value;
+  const std::string shape = "expected a symmetric 3 x 3 tensor [[k11, k12, k13], [k12, k22, k23], [k13, k23, k33]] "
+                            "(W/(m K), global axes)";
+  if (!rows.IsSequence() || rows.size() != 3)
+    reader.fail(where, shape + ", found " + (rows.IsSequence() ? std::to_string(rows.size()) + " rows" : yaml_text(rows)));
+  Matrix3 K{};
+  double scale = 0.0;
+  for (std::size_t i = 0; i < 3; ++i) {
+    const YAML::Node row = rows[i];
+    const Place at = place_at(where, row);
+    if (!row.IsSequence() || row.size() != 3)
+      reader.fail(at, shape + "; row " + std::to_string(i + 1) + " is " + yaml_text(row));
+    for (std::size_t j = 0; j < 3; ++j) {
+      const std::optional<double> x = yaml_number(row[j]);
+      if (!x)
+        reader.fail(at, "entry (" + std::to_string(i + 1) + ", " + std::to_string(j + 1) + ") '" + yaml_text(row[j]) +
+                            "' is not a finite number");
+      K[i][j] = *x;
+      scale = std::max(scale, std::abs(*x));
+    }
+  }
+  for (std::size_t i = 0; i < 3; ++i)
+    for (std::size_t j = i + 1; j < 3; ++j)
+      if (std::abs(K[i][j] - K[j][i]) > 1e-12 * scale)
+        reader.fail(where, "the tensor is not symmetric: entry (" + std::to_string(i + 1) + ", " + std::to_string(j + 1) +
+                               ") = " + yaml_text(rows[i][j]) + " but entry (" + std::to_string(j + 1) + ", " +
+                               std::to_string(i + 1) + ") = " + yaml_text(rows[j][i]) +
+                               " (row, column); a conductivity tensor is symmetric: make them equal");
+  for (std::size_t i = 0; i < 3; ++i)
+    for (std::size_t j = i + 1; j < 3; ++j) K[i][j] = K[j][i] = 0.5 * (K[i][j] + K[j][i]);
+  Eigen::Matrix3d matrix;
+  for (int i = 0; i < 3; ++i)
+    for (int j = 0; j < 3; ++j) matrix(i, j) = K[i][j];
+  const Eigen::SelfAdjointEigenSolver<Eigen::Matrix3d> eigen(matrix, Eigen::EigenvaluesOnly);
+  const Eigen::Vector3d values = eigen.eigenvalues();  // ascending
+  if (!(values(0) > 0.0))
+    reader.fail(where, "the tensor is not positive definite: its eigenvalues are " + number_text(values(0)) + ", " +
+                           number_text(values(1)) + " and " + number_text(values(2)) +
+                           " W/(m K); all must be > 0 (heat flows from hot to cold in every direction); check the "
+                           "signs of the entries and that the off-diagonal ones are not too large");
+  return Conductivity::full(K);
+}
+
+Conductivity read_conductivity(const Reader& reader, const Entry& conductivity, const std::string& key,
+                               std::vector<std::string>& warnings) {
+  const Place where = reader.place(conductivity.key, key);
+  if (!conductivity.value.IsMap()) return Conductivity::isotropic(PiecewiseLinear(conductivity.value.as<double>()));
+  const std::vector<Entry> items = entries(reader, conductivity.value, where);
+  std::vector<std::string> forms;
+  for (const Entry& item : items)
+    if (contains({"vs_temperature", "principal", "tensor"}, item.name)) forms.push_back(item.name);
+  if (forms.size() > 1)
+    reader.fail(where, "give one form of conductivity, not both '" + forms[0] + "' and '" + forms[1] + "'");
+  const std::string form = forms.at(0);  // the schema check made sure there is one
+  if (form == "principal") return read_orthotropic(reader, conductivity, items, key, warnings);
+  only_keys(reader, items, {form}, key, form_syntax(form));
+  const Entry& item = items.front();
+  if (form == "tensor") return read_tensor(reader, item, key + ".tensor");
+  return Conductivity::isotropic(
+      read_temperature_table(item.value, reader.place(item.key, key + ".vs_temperature"), reader.units, conductivity_columns));
+}
+
+// A number or {vs_temperature: [[T_surface, h], ...]} (film coefficient).
+PiecewiseLinear read_film_coefficient(const Reader& reader, const Entry& coefficient, const std::string& key) {
+  if (!coefficient.value.IsMap()) return PiecewiseLinear(coefficient.value.as<double>());
+  const std::vector<Entry> items = entries(reader, coefficient.value, reader.place(coefficient.key, key));
+  only_keys(reader, items, {"vs_temperature"}, key, form_syntax("vs_temperature"));
+  return read_temperature_table(items.front().value, reader.place(items.front().key, key + ".vs_temperature"),
+                                reader.units, {"T_surface", "h", "W/(m2 K)"});
+}
+
 void read_materials_and_regions(const Reader& reader, const YAML::Node& root, Case& c) {
   for (const Entry& entry : entries(reader, child(root, "materials"), Place{})) {
     const std::string key = "materials." + entry.name;
     MaterialSpec material;
     material.name = entry.name;
     material.place = reader.place(entry.key, key);
-    material.conductivity = child(entry.value, "conductivity").as<double>();
+    const std::optional<Entry> library = find_entry(entry.value, "library");
+    if (library) {
+      const Place where = reader.place(library->key, key + ".library");
+      const MaterialLibrary& shipped = reader.library(where);
+      const std::string& name = library->value.Scalar();
+      const LibraryMaterial* found = shipped.find(name);
+      if (!found) {
+        const std::string hint = suggestion(name, shipped.names());
+        reader.fail(where, "'" + name + "' is not an entry of the material library (" + shipped.file.string() +
+                               "); " + (hint.empty() ? "" : hint + " ") + "Nearest entries: " +
+                               join(shipped.nearest_names(name)) + "; 'hearth materials' lists them all");
+      }
+      material.library = found->name;
+      material.conductivity = found->conductivity;
+      material.density = found->density;
+      material.specific_heat = found->specific_heat;
+      material.max_service_temperature = found->max_service_temperature;
+    }
+    if (const std::optional<Entry> conductivity = find_entry(entry.value, "conductivity")) {
+      material.conductivity = read_conductivity(reader, *conductivity, key + ".conductivity", c.warnings);
+    } else if (!library) {
+      Place missing = material.place;
+      missing.key = key + ".conductivity";
+      reader.fail(missing, "required key is missing; give thermal conductivity, " +
+                               reader.expected(*find_key_spec("materials.*.conductivity")) +
+                               ", or library: NAME, an entry of the material library ('hearth materials' lists them)");
+    }
     if (const auto density = find_entry(entry.value, "density")) material.density = density->value.as<double>();
     if (const auto heat = find_entry(entry.value, "specific_heat")) material.specific_heat = heat->value.as<double>();
     if (const auto limit = find_entry(entry.value, "max_service_temperature"))
@@ -565,16 +829,29 @@ void read_boundaries(const Reader& reader, const YAML::Node& root, Case& c) {
     if (const auto convection = find_entry(entry.value, "convection")) {
       const Entry ambient = *find_entry(convection->value, "ambient");
       ConvectionSpec spec;
-      spec.coefficient = child(convection->value, "coefficient").as<double>();
+      spec.coefficient =
+          read_film_coefficient(reader, *find_entry(convection->value, "coefficient"), key + ".convection.coefficient");
       spec.ambient = to_kelvin(reader, ambient.value, reader.place(ambient.key, key + ".convection.ambient"));
       boundary.convection = spec;
     }
-    if (boundary.temperature && (boundary.heat_flux || boundary.convection))
-      reader.fail(boundary.place, std::string("temperature excludes the other conditions; remove ") +
-                                      (boundary.heat_flux ? "heat_flux" : "convection") +
-                                      " or the temperature (heat_flux and convection may be combined)");
-    if (!boundary.temperature && !boundary.heat_flux && !boundary.convection)
-      reader.fail(boundary.place, "no condition given; give temperature, heat_flux or convection "
+    if (const auto radiation = find_entry(entry.value, "radiation")) {
+      const Entry surroundings = *find_entry(radiation->value, "surroundings");
+      Radiation spec;
+      spec.emissivity = child(radiation->value, "emissivity").as<double>();
+      spec.surroundings =
+          to_kelvin(reader, surroundings.value, reader.place(surroundings.key, key + ".radiation.surroundings"));
+      boundary.radiation = spec;
+    }
+    if (boundary.temperature && (boundary.heat_flux || boundary.convection || boundary.radiation)) {
+      std::vector<std::string> others;
+      if (boundary.heat_flux) others.push_back("heat_flux");
+      if (boundary.convection) others.push_back("convection");
+      if (boundary.radiation) others.push_back("radiation");
+      reader.fail(boundary.place, "temperature excludes the other conditions; remove " + join(others, " and ") +
+                                      " or the temperature (heat_flux, convection and radiation may be combined)");
+    }
+    if (!boundary.temperature && !boundary.heat_flux && !boundary.convection && !boundary.radiation)
+      reader.fail(boundary.place, "no condition given; give temperature, heat_flux, convection or radiation "
                                   "(a surface not listed under boundaries is insulated)");
     c.boundaries[entry.name] = boundary;
   }
@@ -603,6 +880,28 @@ void read_analysis_and_solver(const Reader& reader, const YAML::Node& root, Case
   c.solver.nonlinear_tolerance = value_or_default(nonlinear, "tolerance", "solver.nonlinear.tolerance").as<double>();
   c.solver.nonlinear_max_iterations =
       value_or_default(nonlinear, "max_iterations", "solver.nonlinear.max_iterations").as<int>();
+}
+
+void read_safety(const Reader& reader, const YAML::Node& root, Case& c) {
+  c.safety_place = Place{reader.file, 0, "safety", ""};
+  const std::optional<Entry> safety = find_entry(root, "safety");
+  if (!safety) return;
+  c.safety_place = reader.place(safety->key, "safety");
+  if (const std::optional<Entry> surfaces = find_entry(safety->value, "touch_surfaces")) {
+    c.safety_place = reader.place(surfaces->key, "safety.touch_surfaces");
+    std::set<std::string> seen;
+    for (const auto& item : surfaces->value) {
+      const std::string& name = item.Scalar();
+      if (!seen.insert(name).second)
+        reader.fail(place_at(c.safety_place, item), "'" + name + "' is listed twice; keep one");
+      c.touch_surfaces.push_back(name);
+    }
+    if (c.touch_surfaces.empty())
+      reader.fail(c.safety_place, "the list is empty; name at least one physical surface, e.g. [cold_face], "
+                                  "or remove the safety section");
+  }
+  if (const std::optional<Entry> limit = find_entry(safety->value, "touch_limit"))
+    c.touch_limit = to_kelvin(reader, limit->value, reader.place(limit->key, "safety.touch_limit"));
 }
 
 void read_probes_lines_output(const Reader& reader, const YAML::Node& root, Case& c) {
@@ -651,6 +950,7 @@ Case read_case_file(const fs::path& path, const std::vector<std::string>& overri
   read_materials_and_regions(reader, root, c);
   read_boundaries(reader, root, c);
   read_analysis_and_solver(reader, root, c);
+  read_safety(reader, root, c);
   read_probes_lines_output(reader, root, c);
   return c;
 }

@@ -20,6 +20,7 @@ enum class KeyKind {
   path,         // a file or folder, relative to the case file's folder
   point,        // [x, y, z], three numbers
   number_list,  // [a, b, ...], numbers
+  name_list,    // [a, b, ...], names
 };
 
 // Allowed interval of a number or integer; each end open or closed.
@@ -46,6 +47,9 @@ struct KeySpec {
   // whole key; else '|'-separated map forms ("vs_temperature"), the word "table" for a
   // list of pairs, or (for a choice) choice values.
   std::string not_yet;
+  // number: '|'-separated map forms accepted besides a plain number ("vs_temperature",
+  // "principal", "tensor"); the reader checks their contents when it builds the Case.
+  std::string forms;
 };
 
 // The whole table, parents before children, in the order of the reference.
@@ -62,6 +66,10 @@ std::string last_key_part(const std::string& key);
 
 // Splits "a|b|c" into {"a", "b", "c"}; "" gives {}.
 std::vector<std::string> split_choices(const std::string& choices);
+
+// How a map form of a number is written, for messages and the reference:
+// "{vs_temperature: [[T, value], ...]}" for "vs_temperature".
+std::string form_syntax(const std::string& form);
 
 // Markdown reference of every key (a table per top-level section) for docs/.
 std::string case_file_reference();

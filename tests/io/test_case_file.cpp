@@ -2,6 +2,7 @@
 // the input-error messages (where, what, how to fix).
 #include <gtest/gtest.h>
 
+#include <cmath>
 #include <filesystem>
 #include <fstream>
 #include <random>
@@ -155,7 +156,10 @@ TEST_F(CaseFileTest, FullCaseConvertsToMetresAndKelvin) {
 
   ASSERT_EQ(c.materials.size(), 2u);
   const hearth::MaterialSpec& brick = c.materials.at("firebrick");
-  EXPECT_DOUBLE_EQ(brick.conductivity, 1.3);
+  EXPECT_TRUE(brick.conductivity.is_isotropic());
+  EXPECT_FALSE(brick.conductivity.depends_on_temperature());
+  EXPECT_DOUBLE_EQ(brick.conductivity.typical(300.0), 1.3);
+  EXPECT_TRUE(brick.library.empty());
   EXPECT_DOUBLE_EQ(*brick.density, 2200.0);
   EXPECT_DOUBLE_EQ(*brick.specific_heat, 1000.0);
   EXPECT_NEAR(*brick.max_service_temperature, 1673.15, tol);
@@ -173,7 +177,9 @@ TEST_F(CaseFileTest, FullCaseConvertsToMetresAndKelvin) {
   EXPECT_NEAR(*c.boundaries.at("hot_face").temperature, 1523.15, tol);
   const hearth::BoundarySpec& cold = c.boundaries.at("cold_face");
   ASSERT_TRUE(cold.convection);
-  EXPECT_DOUBLE_EQ(cold.convection->coefficient, 12.0);
+  EXPECT_TRUE(cold.convection->coefficient.is_constant());
+  EXPECT_DOUBLE_EQ(cold.convection->coefficient.value(300.0), 12.0);
+  EXPECT_FALSE(cold.radiation);
   EXPECT_NEAR(cold.convection->ambient, 303.15, tol);
   EXPECT_DOUBLE_EQ(*cold.heat_flux, -5.0);
   EXPECT_FALSE(cold.temperature);
@@ -276,7 +282,7 @@ TEST_F(CaseFileTest, TemperatureExcludesConvection) {
 
 TEST_F(CaseFileTest, BoundaryWithoutConditionIsAnError) {
   const std::string message = error_of(minimal_case + "  flange: {}\n");
-  EXPECT_TRUE(has(message, ":16: boundaries.flange: no condition given; give temperature, heat_flux or convection"));
+  EXPECT_TRUE(has(message, ":16: boundaries.flange: no condition given; give temperature, heat_flux, convection or radiation"));
 }
 
 TEST_F(CaseFileTest, NonPositivePropertiesAreRejected) {
@@ -311,7 +317,7 @@ TEST_F(CaseFileTest, SetOverridesValuesAndCreatesKnownKeys) {
                                 {"mesh.size=0.01", "boundaries.cold_face.convection.coefficient=15",
                                  "solver.linear=direct", "mesh.order=2", "probes.tip=[0.1, 0, 0]"});
   EXPECT_DOUBLE_EQ(c.mesh_size, 0.01);
-  EXPECT_DOUBLE_EQ(c.boundaries.at("cold_face").convection->coefficient, 15.0);
+  EXPECT_DOUBLE_EQ(c.boundaries.at("cold_face").convection->coefficient.value(300.0), 15.0);
   EXPECT_EQ(c.solver.linear, "direct");
   EXPECT_EQ(c.mesh_order, 2);
   ASSERT_EQ(c.probes.size(), 1u);
@@ -329,30 +335,21 @@ TEST_F(CaseFileTest, SetErrorsNameTheOverride) {
 }
 
 TEST_F(CaseFileTest, UnsupportedFeaturesSaySo) {
-  const std::string radiation = error_of(
-      replaced(minimal_case, "      ambient: 20\n", "      ambient: 20\n    radiation: {emissivity: 0.8, surroundings: 20}\n"));
-  EXPECT_TRUE(has(radiation, ":16: boundaries.cold_face.radiation: radiation"));
-  EXPECT_TRUE(has(radiation, "is not supported by this version of hearth yet"));
-
-  const std::string k_of_t = error_of(
-      replaced(minimal_case, "conductivity: 45", "conductivity: {vs_temperature: [[20, 45], [400, 40]]}"));
-  EXPECT_TRUE(has(k_of_t, ":7: materials.steel.conductivity: conductivity as {vs_temperature: ...} "
-                          "is not supported by this version of hearth yet"));
-
-  const std::string orthotropic = error_of(
-      replaced(minimal_case, "conductivity: 45", "conductivity: {principal: [1, 1, 2], axis_1: [1, 0, 0]}"));
-  EXPECT_TRUE(has(orthotropic, "is not supported by this version of hearth yet"));
-
-  const std::string table = error_of(replaced(minimal_case, "coefficient: 10", "coefficient: [[20, 5], [100, 8]]"));
-  EXPECT_TRUE(has(table, ":14: boundaries.cold_face.convection.coefficient: coefficient as a table of values "
-                         "is not supported by this version of hearth yet"));
-
   const std::string vs_time = error_of(replaced(minimal_case, "temperature: 400", "temperature: {vs_time: [[0, 20]]}"));
-  EXPECT_TRUE(has(vs_time, "temperature as {vs_time: ...} is not supported by this version of hearth yet"));
+  EXPECT_TRUE(has(vs_time, ":11: boundaries.hot_face.temperature: temperature as {vs_time: ...} is not supported by "
+                           "this version of hearth yet"));
+
+  const std::string film = error_of(replaced(minimal_case, "coefficient: 10", "coefficient: {vs_time: [[0, 5], [60, 8]]}"));
+  EXPECT_TRUE(has(film, ":14: boundaries.cold_face.convection.coefficient: coefficient as {vs_time: ...} is not "
+                        "supported by this version of hearth yet; give a number > 0 (W/(m2 K)) or {vs_temperature:"));
 
   const std::string transient = error_of("analysis: {type: transient, duration: 60}\n" + minimal_case);
   EXPECT_TRUE(has(transient, ":1: analysis.type: 'transient' is not supported by this version of hearth yet; "
                              "allowed now: steady"));
+
+  const std::string interfaces = error_of(minimal_case + "interfaces:\n  shell_contact: {conductance: 2000}\n");
+  EXPECT_TRUE(has(interfaces, ":16: interfaces: interfaces (thermal contact conductance across named internal "
+                              "surfaces) is not supported by this version of hearth yet; remove it for now"));
 }
 
 TEST_F(CaseFileTest, YamlSyntaxErrorGivesLineAndColumn) {
@@ -400,6 +397,326 @@ TEST_F(CaseFileTest, HeatSourceMustNameARegion) {
 TEST_F(CaseFileTest, SolverToleranceMustLieBetweenZeroAndOne) {
   EXPECT_TRUE(has(error_of(minimal_case + "solver: {tolerance: 1}\n"),
                   ":16: solver.tolerance: 1 is not allowed; must be in (0, 1)"));
+}
+
+// --- conductivity forms, film-coefficient tables, radiation, safety, library ---------
+
+namespace {
+
+// K(T) of a conductivity as a plain matrix.
+hearth::Matrix3 tensor_at(const hearth::Conductivity& k, double t) {
+  hearth::Matrix3 K;
+  k.at(t, K);
+  return K;
+}
+
+}  // namespace
+
+TEST_F(CaseFileTest, ConductivityTableConvertsTemperaturesToKelvin) {
+  const Case c = read_case_file(write(
+      replaced(minimal_case, "conductivity: 45", "conductivity: {vs_temperature: [[20, 0.06], [400, 0.09], [800, 0.14]]}")));
+  const hearth::Conductivity& k = c.materials.at("steel").conductivity;
+  ASSERT_TRUE(k.is_isotropic());
+  EXPECT_TRUE(k.depends_on_temperature());
+  // T[K] = t[degC] + 273.15, exact (SI Brochure, 9th edition, 2019, section 2.3.1).
+  ASSERT_EQ(k.principal[0].x.size(), 3u);
+  EXPECT_NEAR(k.principal[0].x[0], 293.15, 1e-12);
+  EXPECT_NEAR(k.principal[0].x[1], 673.15, 1e-12);
+  EXPECT_NEAR(k.principal[0].x[2], 1073.15, 1e-12);
+  EXPECT_EQ(k.principal[0].y, (std::vector<double>{0.06, 0.09, 0.14}));
+
+  // Kelvin tables are kept as given; a table written row by row reads the same.
+  const Case kelvin = read_case_file(write("units: {temperature: K}\n" +
+                                           replaced(minimal_case, "conductivity: 45",
+                                                    "conductivity:\n      vs_temperature:\n        - [300, 60.5]\n"
+                                                    "        - [400, 56.7]\n")));
+  const hearth::PiecewiseLinear& table = kelvin.materials.at("steel").conductivity.principal[0];
+  EXPECT_EQ(table.x, (std::vector<double>{300.0, 400.0}));
+  EXPECT_EQ(table.y, (std::vector<double>{60.5, 56.7}));
+}
+
+TEST_F(CaseFileTest, BadConductivityTablesNameLineKeyAndRow) {
+  const std::string increasing = error_of(
+      replaced(minimal_case, "conductivity: 45", "conductivity: {vs_temperature: [[20, 0.06], [400, 0.09], [400, 0.14]]}"));
+  EXPECT_EQ(increasing, case_path() +
+                            ":7: materials.steel.conductivity.vs_temperature: row 3 [400, 0.14]: temperatures must "
+                            "increase strictly down the table; 400 degC follows 400 degC");
+
+  const std::string one_row =
+      error_of(replaced(minimal_case, "conductivity: 45", "conductivity: {vs_temperature: [[20, 0.06]]}"));
+  EXPECT_TRUE(has(one_row, ":7: materials.steel.conductivity.vs_temperature: has 1 row; a table needs at least 2 rows "
+                           "[T, k] (T in degC, k in W/(m K))"));
+
+  const std::string negative =
+      error_of(replaced(minimal_case, "conductivity: 45", "conductivity: {vs_temperature: [[20, 0.06], [400, -0.09]]}"));
+  EXPECT_TRUE(has(negative, ":7: materials.steel.conductivity.vs_temperature: row 2 [400, -0.09]: k = -0.09 is not "
+                            "allowed; must be > 0 (W/(m K))"));
+
+  const std::string three = error_of(
+      replaced(minimal_case, "conductivity: 45", "conductivity: {vs_temperature: [[20, 0.06], [400, 0.09, 1]]}"));
+  EXPECT_TRUE(has(three, ":7: materials.steel.conductivity.vs_temperature: row 2: expected [T, k], two numbers"));
+  EXPECT_TRUE(has(three, "found 3 values [400, 0.09, 1]"));
+
+  const std::string cold = error_of(
+      replaced(minimal_case, "conductivity: 45", "conductivity: {vs_temperature: [[-300, 0.06], [400, 0.09]]}"));
+  EXPECT_TRUE(has(cold, "row 1 [-300, 0.06]: -300 degC is below absolute zero"));
+
+  const std::string text = error_of(
+      replaced(minimal_case, "conductivity: 45", "conductivity: {vs_temperature: [[20, low], [400, 0.09]]}"));
+  EXPECT_TRUE(has(text, "row 1 [20, low]: k = low is not a finite number"));
+
+  // In a table written row by row, the line is the row's own.
+  const std::string row_line = error_of(replaced(
+      minimal_case, "conductivity: 45", "conductivity:\n      vs_temperature:\n        - [300, 60.5]\n        - [200, 56.7]"));
+  EXPECT_TRUE(has(row_line, ":10: materials.steel.conductivity.vs_temperature: row 2 [200, 56.7]"));
+
+  const std::string bare_list = error_of(replaced(minimal_case, "conductivity: 45", "conductivity: [[20, 1], [400, 2]]"));
+  EXPECT_TRUE(has(bare_list, ":7: materials.steel.conductivity: a list is not allowed here"));
+  EXPECT_TRUE(has(bare_list, "write a table in temperature as {vs_temperature: [[T, value], ...]}"));
+
+  const std::string misspelt =
+      error_of(replaced(minimal_case, "conductivity: 45", "conductivity: {vs_temprature: [[20, 1], [400, 2]]}"));
+  EXPECT_TRUE(has(misspelt, ":7: materials.steel.conductivity: 'vs_temprature' is not a form of conductivity; "
+                            "did you mean 'vs_temperature'?"));
+
+  const std::string companion = error_of(replaced(
+      minimal_case, "conductivity: 45", "conductivity: {vs_temperature: [[20, 1], [400, 2]], axis_1: [1, 0, 0]}"));
+  EXPECT_TRUE(has(companion, ":7: materials.steel.conductivity: 'axis_1' does not belong in {vs_temperature:"));
+
+  const std::string two_forms = error_of(replaced(
+      minimal_case, "conductivity: 45", "conductivity: {vs_temperature: [[20, 1], [400, 2]], tensor: [[1, 0, 0], [0, 1, 0], [0, 0, 1]]}"));
+  EXPECT_TRUE(has(two_forms, ":7: materials.steel.conductivity: give one form of conductivity, not both "
+                             "'vs_temperature' and 'tensor'"));
+}
+
+TEST_F(CaseFileTest, OrthotropicConductivityInARotatedFrame) {
+  // Principal values along a1 = (1, 1, 0)/sqrt 2, a2 = (-1, 1, 0)/sqrt 2, a3 = z; the
+  // third one a table. K = sum k_i a_i a_i^T (rotation of a diagonal tensor; any
+  // linear-algebra text), so Kxx = Kyy = (k1 + k2)/2, Kxy = (k1 - k2)/2, Kzz = k3.
+  const Case c = read_case_file(write(replaced(
+      minimal_case, "conductivity: 45",
+      "conductivity:\n"
+      "      principal: [12.0, 4.0, {vs_temperature: [[20, 0.8], [220, 1.0]]}]\n"
+      "      axis_1: [2, 2, 0]\n"
+      "      axis_2: [-1, 1, 0]")));
+  EXPECT_TRUE(c.warnings.empty());
+  const hearth::Conductivity& k = c.materials.at("steel").conductivity;
+  ASSERT_EQ(k.kind, hearth::Conductivity::Kind::orthotropic);
+  const double r = std::sqrt(0.5);
+  EXPECT_NEAR(k.axes[0][0], r, 1e-15);
+  EXPECT_NEAR(k.axes[0][1], r, 1e-15);
+  EXPECT_NEAR(k.axes[1][0], -r, 1e-15);
+  EXPECT_NEAR(k.axes[1][1], r, 1e-15);
+  EXPECT_NEAR(k.axes[2][2], 1.0, 1e-15);  // axis_3 = axis_1 x axis_2
+  EXPECT_EQ(k.principal[2].x, (std::vector<double>{293.15, 493.15}));
+  const hearth::Matrix3 K = tensor_at(k, 393.15);  // halfway up the k3 table: 0.9
+  EXPECT_NEAR(K[0][0], 8.0, 1e-12);
+  EXPECT_NEAR(K[1][1], 8.0, 1e-12);
+  EXPECT_NEAR(K[0][1], 4.0, 1e-12);
+  EXPECT_NEAR(K[1][0], 4.0, 1e-12);
+  EXPECT_NEAR(K[2][2], 0.9, 1e-12);
+  EXPECT_NEAR(K[0][2], 0.0, 1e-12);
+}
+
+TEST_F(CaseFileTest, NonOrthogonalAxis2IsCorrectedWithAWarning) {
+  const Case c = read_case_file(write(replaced(minimal_case, "conductivity: 45",
+                                               "conductivity: {principal: [3, 2, 1], axis_1: [1, 0, 0], axis_2: [1, 1, 0]}")));
+  ASSERT_EQ(c.warnings.size(), 1u);
+  EXPECT_EQ(c.warnings[0], case_path() +
+                               ":7: materials.steel.conductivity.axis_2: [1, 1, 0] is not at right angles to axis_1 "
+                               "[1, 0, 0] (45 degrees apart); made orthogonal to it (Gram-Schmidt): axis_2 = [0, 1, 0]");
+  const hearth::Conductivity& k = c.materials.at("steel").conductivity;
+  EXPECT_NEAR(k.axes[1][0], 0.0, 1e-15);
+  EXPECT_NEAR(k.axes[1][1], 1.0, 1e-15);
+  EXPECT_NEAR(k.axes[2][2], 1.0, 1e-15);
+}
+
+TEST_F(CaseFileTest, BadOrthotropicInputIsNamed) {
+  const std::string parallel = error_of(replaced(
+      minimal_case, "conductivity: 45", "conductivity: {principal: [3, 2, 1], axis_1: [1, 0, 0], axis_2: [-2, 0, 0]}"));
+  EXPECT_EQ(parallel, case_path() + ":7: materials.steel.conductivity.axis_2: [-2, 0, 0] is parallel to axis_1 [1, 0, 0]; "
+                                    "axis_2 must be a second principal direction at right angles to axis_1");
+
+  const std::string zero = error_of(replaced(
+      minimal_case, "conductivity: 45", "conductivity: {principal: [3, 2, 1], axis_1: [0, 0, 0], axis_2: [0, 1, 0]}"));
+  EXPECT_TRUE(has(zero, ":7: materials.steel.conductivity.axis_1: [0, 0, 0] is not a direction (zero length)"));
+
+  const std::string missing =
+      error_of(replaced(minimal_case, "conductivity: 45", "conductivity: {principal: [3, 2, 1], axis_1: [1, 0, 0]}"));
+  EXPECT_TRUE(has(missing, ":7: materials.steel.conductivity.axis_2: required key is missing"));
+
+  const std::string two = error_of(replaced(
+      minimal_case, "conductivity: 45", "conductivity: {principal: [3, 2], axis_1: [1, 0, 0], axis_2: [0, 1, 0]}"));
+  EXPECT_TRUE(has(two, ":7: materials.steel.conductivity.principal: expected three principal values [k1, k2, k3]"));
+
+  const std::string negative = error_of(replaced(
+      minimal_case, "conductivity: 45", "conductivity: {principal: [3, -2, 1], axis_1: [1, 0, 0], axis_2: [0, 1, 0]}"));
+  EXPECT_TRUE(has(negative, ":7: materials.steel.conductivity.principal: principal value 2 of 3 = -2 is not allowed; "
+                            "must be > 0 (W/(m K))"));
+
+  const std::string misspelt = error_of(replaced(
+      minimal_case, "conductivity: 45", "conductivity: {principal: [3, 2, 1], axis_1: [1, 0, 0], axis2: [0, 1, 0]}"));
+  EXPECT_TRUE(has(misspelt, ":7: materials.steel.conductivity: 'axis2' does not belong in {principal: ..., axis_1: ..., "
+                            "axis_2: ...}; did you mean 'axis_2'?"));
+
+  const std::string short_axis = error_of(replaced(
+      minimal_case, "conductivity: 45", "conductivity: {principal: [3, 2, 1], axis_1: [1, 0], axis_2: [0, 1, 0]}"));
+  EXPECT_TRUE(has(short_axis, ":7: materials.steel.conductivity.axis_1: expected a direction [x, y, z]"));
+}
+
+TEST_F(CaseFileTest, FullTensorIsReadAndChecked) {
+  const Case c = read_case_file(write(replaced(minimal_case, "conductivity: 45",
+                                               "conductivity: {tensor: [[5, 1, 0], [1, 4, 0.5], [0, 0.5, 3]]}")));
+  const hearth::Conductivity& k = c.materials.at("steel").conductivity;
+  ASSERT_EQ(k.kind, hearth::Conductivity::Kind::tensor);
+  EXPECT_DOUBLE_EQ(k.tensor[0][1], 1.0);
+  EXPECT_DOUBLE_EQ(k.tensor[2][1], 0.5);
+  EXPECT_DOUBLE_EQ(k.tensor[2][2], 3.0);
+
+  const std::string asymmetric = error_of(replaced(minimal_case, "conductivity: 45",
+                                                   "conductivity: {tensor: [[5, 1, 0], [1, 4, 0.5], [0, 0.4, 3]]}"));
+  EXPECT_EQ(asymmetric, case_path() + ":7: materials.steel.conductivity.tensor: the tensor is not symmetric: entry (2, 3) = "
+                                      "0.5 but entry (3, 2) = 0.4 (row, column); a conductivity tensor is symmetric: "
+                                      "make them equal");
+
+  // [[1, 2, 0], [2, 1, 0], [0, 0, 1]] has eigenvalues 1 - 2, 1 + 2 and 1 (the 2 x 2
+  // block [[a, b], [b, a]] has eigenvalues a - b and a + b).
+  const std::string indefinite = error_of(replaced(minimal_case, "conductivity: 45",
+                                                   "conductivity: {tensor: [[1, 2, 0], [2, 1, 0], [0, 0, 1]]}"));
+  EXPECT_TRUE(has(indefinite, ":7: materials.steel.conductivity.tensor: the tensor is not positive definite: its "
+                              "eigenvalues are -1, 1 and 3 W/(m K); all must be > 0"));
+
+  const std::string shape =
+      error_of(replaced(minimal_case, "conductivity: 45", "conductivity: {tensor: [[1, 0], [0, 1]]}"));
+  EXPECT_TRUE(has(shape, ":7: materials.steel.conductivity.tensor: expected a symmetric 3 x 3 tensor"));
+}
+
+TEST_F(CaseFileTest, RadiationCombinesWithConvectionAndHeatFlux) {
+  const Case c = read_case_file(write(replaced(
+      minimal_case, "      ambient: 20\n",
+      "      ambient: 20\n    radiation: {emissivity: 0.85, surroundings: 30}\n    heat_flux: 100\n")));
+  const hearth::BoundarySpec& cold = c.boundaries.at("cold_face");
+  ASSERT_TRUE(cold.radiation);
+  EXPECT_DOUBLE_EQ(cold.radiation->emissivity, 0.85);
+  EXPECT_NEAR(cold.radiation->surroundings, 303.15, 1e-12);  // 30 degC + 273.15, exact
+  EXPECT_TRUE(cold.convection);
+  EXPECT_DOUBLE_EQ(*cold.heat_flux, 100.0);
+
+  // Radiation alone, in kelvin.
+  const Case kelvin = read_case_file(
+      write("units: {temperature: K}\n" + minimal_case + "  flange: {radiation: {emissivity: 1, surroundings: 300}}\n"));
+  EXPECT_DOUBLE_EQ(kelvin.boundaries.at("flange").radiation->surroundings, 300.0);
+  EXPECT_DOUBLE_EQ(kelvin.boundaries.at("flange").radiation->emissivity, 1.0);
+}
+
+TEST_F(CaseFileTest, BadRadiationIsNamed) {
+  const std::string zero = error_of(minimal_case + "  flange: {radiation: {emissivity: 0, surroundings: 20}}\n");
+  EXPECT_EQ(zero, case_path() + ":16: boundaries.flange.radiation.emissivity: 0 is not allowed; must be in (0, 1]");
+  const std::string above = error_of(minimal_case + "  flange: {radiation: {emissivity: 1.5, surroundings: 20}}\n");
+  EXPECT_EQ(above, case_path() + ":16: boundaries.flange.radiation.emissivity: 1.5 is not allowed; must be in (0, 1]");
+  const std::string cold = error_of(minimal_case + "  flange: {radiation: {emissivity: 0.5, surroundings: -280}}\n");
+  EXPECT_TRUE(has(cold, ":16: boundaries.flange.radiation.surroundings: -280 degC is below absolute zero"));
+  const std::string missing = error_of(minimal_case + "  flange: {radiation: {emissivity: 0.5}}\n");
+  EXPECT_TRUE(has(missing, ":16: boundaries.flange.radiation.surroundings: required key is missing"));
+  const std::string with_temperature =
+      error_of(minimal_case + "  flange: {temperature: 20, radiation: {emissivity: 0.5, surroundings: 20}}\n");
+  EXPECT_TRUE(has(with_temperature, ":16: boundaries.flange: temperature excludes the other conditions; remove "
+                                    "radiation or the temperature"));
+}
+
+TEST_F(CaseFileTest, FilmCoefficientTableOfSurfaceTemperature) {
+  const Case c = read_case_file(
+      write(replaced(minimal_case, "coefficient: 10", "coefficient: {vs_temperature: [[20, 5], [120, 9]]}")));
+  const hearth::PiecewiseLinear& h = c.boundaries.at("cold_face").convection->coefficient;
+  EXPECT_FALSE(h.is_constant());
+  EXPECT_NEAR(h.x[0], 293.15, 1e-12);
+  EXPECT_NEAR(h.x[1], 393.15, 1e-12);
+  EXPECT_EQ(h.y, (std::vector<double>{5.0, 9.0}));
+
+  const std::string negative = error_of(
+      replaced(minimal_case, "coefficient: 10", "coefficient: {vs_temperature: [[20, 5], [120, -9]]}"));
+  EXPECT_EQ(negative, case_path() + ":14: boundaries.cold_face.convection.coefficient.vs_temperature: row 2 [120, -9]: "
+                                    "h = -9 is not allowed; must be > 0 (W/(m2 K))");
+  const std::string constant = error_of(replaced(minimal_case, "coefficient: 10", "coefficient: -10"));
+  EXPECT_EQ(constant, case_path() + ":14: boundaries.cold_face.convection.coefficient: -10 is not allowed; must be > 0 "
+                                    "(W/(m2 K))");
+  const std::string order = error_of(
+      replaced(minimal_case, "coefficient: 10", "coefficient: {vs_temperature: [[120, 5], [20, 9]]}"));
+  EXPECT_TRUE(has(order, "row 2 [20, 9]: temperatures must increase strictly down the table; 20 degC follows 120 degC"));
+}
+
+TEST_F(CaseFileTest, SafetyTouchSurfacesAndLimit) {
+  const Case c = read_case_file(write(minimal_case + "safety:\n  touch_surfaces: [cold_face, hot_face]\n  touch_limit: 50\n"));
+  EXPECT_EQ(c.touch_surfaces, (std::vector<std::string>{"cold_face", "hot_face"}));
+  EXPECT_NEAR(c.touch_limit, 323.15, 1e-12);  // 50 degC + 273.15, exact
+  EXPECT_EQ(c.safety_place.line, 17);
+  EXPECT_EQ(c.safety_place.key, "safety.touch_surfaces");
+
+  // Default 60 degC (common practice, no source), whatever the case's unit.
+  const Case defaults = read_case_file(write(minimal_case + "safety: {touch_surfaces: [cold_face]}\n"));
+  EXPECT_NEAR(defaults.touch_limit, 333.15, 1e-12);
+  const Case kelvin = read_case_file(write("units: {temperature: K}\n" + minimal_case + "safety: {touch_surfaces: [cold_face]}\n"));
+  EXPECT_NEAR(kelvin.touch_limit, 333.15, 1e-12);
+  const Case kelvin_limit = read_case_file(
+      write("units: {temperature: K}\n" + minimal_case + "safety: {touch_surfaces: [cold_face], touch_limit: 320}\n"));
+  EXPECT_DOUBLE_EQ(kelvin_limit.touch_limit, 320.0);
+  const Case none = read_case_file(write(minimal_case));
+  EXPECT_TRUE(none.touch_surfaces.empty());
+
+  EXPECT_TRUE(has(error_of(minimal_case + "safety: {touch_surfaces: [cold_face, cold_face]}\n"),
+                  ":16: safety.touch_surfaces: 'cold_face' is listed twice"));
+  EXPECT_TRUE(has(error_of(minimal_case + "safety: {touch_surfaces: []}\n"), ":16: safety.touch_surfaces: the list is empty"));
+  EXPECT_TRUE(has(error_of(minimal_case + "safety: {touch_surfaces: cold_face}\n"),
+                  ":16: safety.touch_surfaces: expected a list of names [a, b, ...], found 'cold_face'"));
+  EXPECT_TRUE(has(error_of(minimal_case + "safety: {touch_limit: 50}\n"), "safety.touch_surfaces: required key is missing"));
+  EXPECT_TRUE(has(error_of(minimal_case + "safety: {touch_surfaces: [cold_face], touch_limit: -400}\n"),
+                  ":16: safety.touch_limit: -400 degC is below absolute zero"));
+}
+
+TEST_F(CaseFileTest, LibraryEntryWithOverrides) {
+  const Case c = read_case_file(write(replaced(minimal_case, "conductivity: 45", "library: carbon_steel\n    conductivity: 45")));
+  const hearth::MaterialSpec& steel = c.materials.at("steel");
+  EXPECT_EQ(steel.library, "carbon_steel");
+  EXPECT_DOUBLE_EQ(steel.conductivity.typical(300.0), 45.0);  // the case's own value
+  // Density kept from the library entry: 7854 kg/m3, plain carbon steel, Incropera &
+  // DeWitt Table A.1 (from memory).
+  ASSERT_TRUE(steel.density);
+  EXPECT_DOUBLE_EQ(*steel.density, 7854.0);
+  EXPECT_DOUBLE_EQ(*steel.specific_heat, 434.0);  // same source
+
+  // Without overrides the table comes from the library, already in kelvin: 60.5 W/(m K)
+  // at 300 K and 30.0 at 1000 K (Incropera & DeWitt Table A.1, from memory).
+  const Case plain = read_case_file(write(replaced(minimal_case, "conductivity: 45", "library: carbon_steel")));
+  const hearth::Conductivity& k = plain.materials.at("steel").conductivity;
+  EXPECT_TRUE(k.depends_on_temperature());
+  EXPECT_DOUBLE_EQ(k.typical(300.0), 60.5);
+  EXPECT_DOUBLE_EQ(k.typical(1000.0), 30.0);
+
+  const Case density = read_case_file(write(replaced(minimal_case, "conductivity: 45", "library: carbon_steel\n    density: 7800")));
+  EXPECT_DOUBLE_EQ(*density.materials.at("steel").density, 7800.0);
+  EXPECT_DOUBLE_EQ(density.materials.at("steel").conductivity.typical(300.0), 60.5);  // as above
+
+  const Case limit = read_case_file(
+      write(replaced(minimal_case, "conductivity: 45", "library: carbon_steel\n    max_service_temperature: 400")));
+  EXPECT_NEAR(*limit.materials.at("steel").max_service_temperature, 673.15, 1e-12);
+
+  // --set may override a library property too.
+  const Case set = read_case_file(write(replaced(minimal_case, "conductivity: 45", "library: carbon_steel")),
+                                  {"materials.steel.conductivity=50"});
+  EXPECT_DOUBLE_EQ(set.materials.at("steel").conductivity.typical(300.0), 50.0);
+}
+
+TEST_F(CaseFileTest, UnknownLibraryEntrySuggestsTheNearest) {
+  const std::string message = error_of(replaced(minimal_case, "conductivity: 45", "library: carbon_stel"));
+  EXPECT_TRUE(has(message, case_path() + ":7: materials.steel.library: 'carbon_stel' is not an entry of the material "
+                                         "library ("));
+  EXPECT_TRUE(has(message, "); did you mean 'carbon_steel'? Nearest entries: carbon_steel, "));
+  EXPECT_TRUE(has(message, "; 'hearth materials' lists them all"));
+
+  const std::string missing = error_of(replaced(minimal_case, "conductivity: 45", "density: 7800"));
+  EXPECT_TRUE(has(missing, ":6: materials.steel.conductivity: required key is missing; give thermal conductivity, a "
+                           "number > 0 (W/(m K))"));
+  EXPECT_TRUE(has(missing, "or library: NAME, an entry of the material library"));
 }
 
 TEST(CaseSchema, ReferenceListsEveryKey) {
