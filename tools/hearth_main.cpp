@@ -48,6 +48,8 @@ int main(int argc, char** argv) {
   add_common(check, options, false, false);
   auto* mesh = app.add_subcommand("mesh", "mesh only: mesh.vtu with region and quality, mesh.json");
   add_common(mesh, options, true, false);
+  auto* materials = app.add_subcommand(
+      "materials", "list the shipped material library: each entry's properties and source, and where the file is");
 
   // Named in the command-line contract, not built yet: say so plainly (exit 1).
   std::string pending_target;
@@ -75,6 +77,7 @@ int main(int argc, char** argv) {
     }
 
   try {
+    if (*materials) return hearth::materials_command();
     if (*run) return hearth::run_command(options);
     if (*check) return hearth::check_command(options);
     if (*mesh) return hearth::mesh_command(options);

@@ -9,5 +9,6 @@ namespace hearth {
 int run_command(const CommonOptions& options);
 int check_command(const CommonOptions& options);
 int mesh_command(const CommonOptions& options);
+int materials_command();  // lists the shipped material library on stdout
 
 }  // namespace hearth
