@@ -106,8 +106,8 @@ SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, con
   std::vector<double>& T = solution.temperature;
   const double guess = reference_temperature(problem);
   for (std::int32_t r = 0; r < dofs.n_free(); ++r) T[dofs.free_nodes[r]] = guess;
-  say(format("nonlinear problem: Newton's method from %.2f K (first step Picard), %s Jacobian", guess) +
-      (symmetric ? "symmetric" : "non-symmetric"));
+  say(format("nonlinear problem: Newton's method from %.2f K (first step Picard), ", guess) +
+      (symmetric ? "symmetric" : "non-symmetric") + " Jacobian");
 
   std::vector<double> R, R_try, delta(dofs.n_free()), T_try;
   double r0 = 0.0, last_update = INFINITY, t_max = 0.0;
@@ -140,7 +140,8 @@ SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, con
       if (it == 0) break;
       assembler.assemble_terms(problem, T_try, kind, nullptr, R_try);
       r_try = norm(R_try);
-      if (r_try <= (1.0 - 1e-4 * alpha) * r_norm) break;
+      // Accept a sufficient decrease, or a residual already at round-off level.
+      if (r_try <= (1.0 - 1e-4 * alpha) * r_norm || r_try <= 1e-3 * nonlinear.tolerance * r0) break;
     }
     last_update = 0.0;
     for (std::int32_t r = 0; r < dofs.n_free(); ++r) last_update = std::max(last_update, std::abs(alpha * delta[r]));

@@ -49,6 +49,7 @@ int check_command(const CommonOptions& options) {
   if (mesh.unnamed_exterior_faces)
     std::printf("  %zu exterior triangles on unnamed surfaces: insulated\n", mesh.unnamed_exterior_faces);
   for (const auto& p : c.probes) std::printf("probe %s: inside\n", p.name.c_str());
+  for (const auto& w : c.warnings) std::printf("warning: %s\n", w.c_str());
   std::printf("case is valid\n");
   return 0;
 }

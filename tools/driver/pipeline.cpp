@@ -307,10 +307,11 @@ void print_human_summary(const Case& c, const RunRecord& record, const std::vect
   std::fprintf(stderr, "  %-24s %12s %12s %12s\n", "boundary", "heat rate W", "area m2", ("mean " + unit).c_str());
   for (std::size_t b = 0; b < record.results.boundaries.size(); ++b) {
     const auto& r = record.results.boundaries[b];
-    std::fprintf(stderr, "  %-24s %12.4g %12.4g %12.2f  %s%s\n", r.name.c_str(), r.heat_rate, r.area,
-                 c.units.from_kelvin(r.temperature.mean),
-                 b < record.boundary_conditions.size() ? record.boundary_conditions[b].c_str() : "",
-                 r.internal ? " (internal: + along its normal)" : "");
+    const char* condition = r.internal                              ? "internal: + along its normal"
+                            : b < record.boundary_conditions.size() ? record.boundary_conditions[b].c_str()
+                                                                    : "";
+    std::fprintf(stderr, "  %-24s %12.4g %12.4g %12.2f  %s\n", r.name.c_str(), r.heat_rate, r.area,
+                 c.units.from_kelvin(r.temperature.mean), condition);
   }
   const auto& eb = record.results.balance;
   std::fprintf(stderr, "  energy balance: in %.6g W, out %.6g W, sources %.6g W, relative imbalance %.2e\n",

@@ -77,6 +77,7 @@ int run_command(const CommonOptions& options) {
   sample_probes(c, mesh, std::vector<double>(mesh.n_nodes(), 0.0));  // a probe outside: error before the solve
 
   RunRecord record = start_record(c, mesh);
+  record.warnings = c.warnings;  // from reading the case (e.g. axes made orthogonal)
   SteadySolution solution;
   solution = solve_steady(mesh, problem, linear_settings(c), [&](const std::string& s) { progress.say(s); },
                           nonlinear_settings(c));
