@@ -63,6 +63,13 @@ struct BoundarySpec {
   Place place;
 };
 
+// Thermal contact across a named internal surface between two volumes.
+struct InterfaceSpec {
+  std::string name;
+  double conductance = 0.0;  // W/(m2 K), > 0 (1 / contact resistance)
+  Place place;
+};
+
 struct ProbeSpec {
   std::string name;
   std::array<double, 3> point{};  // metres
@@ -117,6 +124,7 @@ struct Case {
   std::map<std::string, double> heat_sources;   // physical volume -> W/m3
   std::map<std::string, Place> heat_source_places;
   std::map<std::string, BoundarySpec> boundaries;
+  std::map<std::string, InterfaceSpec> interfaces;
   Place regions_place;     // the 'regions' key itself
   Place boundaries_place;  // the 'boundaries' key (line 0 when the file has none)
 

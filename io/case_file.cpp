@@ -904,6 +904,16 @@ void read_safety(const Reader& reader, const YAML::Node& root, Case& c) {
     c.touch_limit = to_kelvin(reader, limit->value, reader.place(limit->key, "safety.touch_limit"));
 }
 
+void read_interfaces(const Reader& reader, const YAML::Node& root, Case& c) {
+  for (const Entry& entry : entries(reader, child(root, "interfaces"), Place{})) {
+    InterfaceSpec spec;
+    spec.name = entry.name;
+    spec.place = reader.place(entry.key, "interfaces." + entry.name);
+    spec.conductance = child(entry.value, "conductance").as<double>();
+    c.interfaces[entry.name] = spec;
+  }
+}
+
 void read_probes_lines_output(const Reader& reader, const YAML::Node& root, Case& c) {
   for (const Entry& entry : entries(reader, child(root, "probes"), Place{}))
     c.probes.push_back({entry.name, point_in_metres(c.units, entry.value),
@@ -951,6 +961,7 @@ Case read_case_file(const fs::path& path, const std::vector<std::string>& overri
   read_boundaries(reader, root, c);
   read_analysis_and_solver(reader, root, c);
   read_safety(reader, root, c);
+  read_interfaces(reader, root, c);
   read_probes_lines_output(reader, root, c);
   return c;
 }

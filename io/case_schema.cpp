@@ -67,7 +67,7 @@ const std::vector<KeySpec> schema_table = {
     {"boundaries.*.radiation.emissivity", K::number, true, "", "", above_zero_to_one, "", "emissivity of the surface (grey)", "", ""},
     {"boundaries.*.radiation.surroundings", K::number, true, "", "", any_value, "temperature", "temperature of the surroundings", "vs_time", ""},
 
-    {"interfaces", K::names, false, "", "", any_value, "", "thermal contact conductance across named internal surfaces", "*", ""},
+    {"interfaces", K::names, false, "", "", any_value, "", "thermal contact conductance across named internal surfaces (the temperature jumps across them)", "", ""},
     {"interfaces.*", K::section, false, "", "", any_value, "", "one internal surface between two regions", "", ""},
     {"interfaces.*.conductance", K::number, true, "", "", positive, "W/(m2 K)", "contact conductance", "", ""},
 

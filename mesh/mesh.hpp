@@ -41,6 +41,16 @@ struct Mesh {
   std::vector<double> tet_quality;
   // Exterior triangles of the body that lie on no named boundary (insulated, unnamed).
   std::size_t unnamed_exterior_faces = 0;
+  // Internal surfaces cut open for a thermal contact (split_interface): for such a face,
+  // nodes_per_face() entries from f * nodes_per_face() give the nodes of the side in front
+  // of its normal, in the face's local order (face_nodes keeps the side behind). Empty
+  // when nothing is cut; -1 for faces that are not cut.
+  std::vector<std::int32_t> face_twin_nodes;
+
+  bool face_is_split(std::size_t f) const {
+    return !face_twin_nodes.empty() && face_twin_nodes[f * nodes_per_face()] >= 0;
+  }
+  const std::int32_t* face_twin(std::size_t f) const { return &face_twin_nodes[f * nodes_per_face()]; }
 
   int nodes_per_tet() const { return order == 2 ? 10 : 4; }
   int nodes_per_face() const { return order == 2 ? 6 : 3; }

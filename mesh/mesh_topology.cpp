@@ -58,7 +58,7 @@ std::vector<bool> internal_boundaries(const Mesh& mesh) {
   for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
     const auto b = static_cast<std::size_t>(mesh.face_boundary[f]);
     has_faces[b] = true;
-    if (counts[f] != 2) internal[b] = false;
+    if (counts[f] != 2 && !mesh.face_is_split(f)) internal[b] = false;  // a cut face stays internal
   }
   for (std::size_t b = 0; b < internal.size(); ++b) internal[b] = internal[b] && has_faces[b];
   return internal;

@@ -44,6 +44,23 @@ void Assembler::build_pattern() {
     for (std::size_t e = 0; e < mesh_.n_tets(); ++e)
       for (int a = 0; a < npe; ++a) node_tets[fill[mesh_.tet(e)[a]]++] = static_cast<std::int32_t>(e);
   }
+  // Cut faces couple the nodes of both sides (thermal contact): node -> cut faces.
+  const int npf = mesh_.nodes_per_face();
+  std::vector<std::int64_t> cstart(n_nodes + 1, 0);
+  for (std::size_t f = 0; f < mesh_.n_faces(); ++f)
+    if (mesh_.face_is_split(f))
+      for (int a = 0; a < npf; ++a) ++cstart[mesh_.face(f)[a] + 1], ++cstart[mesh_.face_twin(f)[a] + 1];
+  for (std::size_t i = 0; i < n_nodes; ++i) cstart[i + 1] += cstart[i];
+  std::vector<std::int32_t> node_contacts(cstart[n_nodes]);
+  {
+    std::vector<std::int64_t> fill(cstart.begin(), cstart.end() - 1);
+    for (std::size_t f = 0; f < mesh_.n_faces(); ++f)
+      if (mesh_.face_is_split(f))
+        for (int a = 0; a < npf; ++a) {
+          node_contacts[fill[mesh_.face(f)[a]]++] = static_cast<std::int32_t>(f);
+          node_contacts[fill[mesh_.face_twin(f)[a]]++] = static_cast<std::int32_t>(f);
+        }
+  }
   const std::int32_t n = dofs_.n_free();
   pattern_.n = n;
   pattern_.row_ptr.assign(n + 1, 0);
@@ -55,15 +72,19 @@ void Assembler::build_pattern() {
     for (std::int32_t r = 0; r < n; ++r) {
       const std::int32_t node = dofs_.free_nodes[r];
       auto& cols = rows_cols[r];
-      for (std::int64_t p = start[node]; p < start[node + 1]; ++p) {
-        const std::int32_t* nodes = mesh_.tet(node_tets[p]);
-        for (int b = 0; b < npe; ++b) {
+      auto add_columns = [&](const std::int32_t* nodes, int count) {
+        for (int b = 0; b < count; ++b) {
           const std::int32_t c = dofs_.free_index[nodes[b]];
           if (c >= 0 && marker[c] != r) {
             marker[c] = r;
             cols.push_back(c);
           }
         }
+      };
+      for (std::int64_t p = start[node]; p < start[node + 1]; ++p) add_columns(mesh_.tet(node_tets[p]), npe);
+      for (std::int64_t p = cstart[node]; p < cstart[node + 1]; ++p) {
+        add_columns(mesh_.face(node_contacts[p]), npf);
+        add_columns(mesh_.face_twin(node_contacts[p]), npf);
       }
       std::sort(cols.begin(), cols.end());
     }
@@ -106,6 +127,20 @@ void Assembler::build_positions() {
     fill_positions(pattern_, dofs_, mesh_.tet(e), npe, &tet_positions_[e * npe * npe]);
   for (std::size_t f = 0; f < mesh_.n_faces(); ++f)
     fill_positions(pattern_, dofs_, mesh_.face(f), npf, &face_positions_[f * npf * npf]);
+  for (std::size_t f = 0; f < mesh_.n_faces(); ++f) {
+    if (!mesh_.face_is_split(f)) continue;
+    const std::vector<std::int32_t> nodes = contact_nodes(f);
+    contact_faces_.push_back(static_cast<std::int32_t>(f));
+    contact_positions_.resize(contact_positions_.size() + 4 * npf * npf);
+    fill_positions(pattern_, dofs_, nodes.data(), 2 * npf, &contact_positions_[contact_positions_.size() - 4 * npf * npf]);
+  }
+}
+
+std::vector<std::int32_t> Assembler::contact_nodes(std::size_t f) const {
+  const int npf = mesh_.nodes_per_face();
+  std::vector<std::int32_t> nodes(mesh_.face(f), mesh_.face(f) + npf);
+  nodes.insert(nodes.end(), mesh_.face_twin(f), mesh_.face_twin(f) + npf);
+  return nodes;
 }
 
 void Assembler::partition_rows() {
@@ -138,6 +173,10 @@ void Assembler::partition_rows() {
     owners(mesh_.tet(e), mesh_.nodes_per_tet(), thread_tets_, static_cast<std::int32_t>(e));
   for (std::size_t f = 0; f < mesh_.n_faces(); ++f)
     owners(mesh_.face(f), mesh_.nodes_per_face(), thread_faces_, static_cast<std::int32_t>(f));
+  thread_contacts_.assign(threads_, {});
+  for (std::size_t k = 0; k < contact_faces_.size(); ++k)
+    owners(contact_nodes(contact_faces_[k]).data(), 2 * mesh_.nodes_per_face(), thread_contacts_,
+           static_cast<std::int32_t>(k));
 }
 
 void Assembler::assemble(const ThermalProblem& problem, CsrMatrix& A, std::vector<double>& b) const {
@@ -163,7 +202,10 @@ void Assembler::assemble_terms(const ThermalProblem& problem, const std::vector<
   {
     const int t = omp_get_thread_num();
     const std::int32_t own_begin = row_begin_[t], own_end = row_begin_[t + 1];
-    double K[max_tet_nodes * max_tet_nodes], F[max_tet_nodes], T[max_tet_nodes];
+    // Local arrays sized for the largest local system: a 10-node element or a cut face
+    // with both of its sides (2 x 6 nodes).
+    constexpr int max_local = 2 * max_face_nodes > max_tet_nodes ? 2 * max_face_nodes : max_tet_nodes;
+    double K[max_local * max_local], F[max_local], T[max_local];
     // Scatter one local Jacobian and residual: owned free rows, free columns only (the
     // fixed temperatures are already in T, so their columns need no correction).
     auto scatter = [&](const std::int32_t* nodes, int n, const std::int32_t* positions) {
@@ -192,6 +234,15 @@ void Assembler::assemble_terms(const ThermalProblem& problem, const std::vector<
       for (int a = 0; a < npf; ++a) T[a] = temperature[nodes[a]];
       face_local_terms(face_geometry(mesh_, f), bc, T, kind, F, values ? K : nullptr);
       scatter(nodes, npf, &face_positions_[std::size_t(f) * npf * npf]);
+    }
+    for (const std::int32_t k : thread_contacts_[t]) {  // thermal contact across cut faces
+      const std::int32_t f = contact_faces_[k];
+      const BoundaryCondition& bc = problem.boundaries[mesh_.face_boundary[f]];
+      if (!bc.contact_conductance) continue;
+      const std::vector<std::int32_t> nodes = contact_nodes(f);
+      for (int a = 0; a < 2 * npf; ++a) T[a] = temperature[nodes[a]];
+      contact_local_terms(face_geometry(mesh_, f), *bc.contact_conductance, T, F, values ? K : nullptr);
+      scatter(nodes.data(), 2 * npf, &contact_positions_[std::size_t(k) * 4 * npf * npf]);
     }
   }
 }

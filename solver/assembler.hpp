@@ -44,6 +44,7 @@ class Assembler {
   void build_pattern();
   void build_positions();
   void partition_rows();
+  std::vector<std::int32_t> contact_nodes(std::size_t face) const;  // behind, then in front
 
   const Mesh& mesh_;
   const DofMap& dofs_;
@@ -51,8 +52,10 @@ class Assembler {
   CsrMatrix pattern_;                          // row_ptr and col only
   std::vector<std::int32_t> tet_positions_;    // n_tets * npe * npe, -1: not in the system
   std::vector<std::int32_t> face_positions_;   // n_faces * npf * npf
+  std::vector<std::int32_t> contact_faces_;    // cut faces (Mesh::face_twin_nodes)
+  std::vector<std::int32_t> contact_positions_;  // per cut face, (2 npf)^2
   std::vector<std::int32_t> row_begin_;        // threads + 1
-  std::vector<std::vector<std::int32_t>> thread_tets_, thread_faces_;
+  std::vector<std::vector<std::int32_t>> thread_tets_, thread_faces_, thread_contacts_;
 };
 
 }  // namespace hearth

@@ -121,6 +121,27 @@ void face_local_terms(const FaceGeometry& g, const BoundaryCondition& bc, const 
   }
 }
 
+void contact_local_terms(const FaceGeometry& g, double conductance, const double* T, double* R, double* J) {
+  const int n = face_nodes(g.order), m = 2 * n;
+  double M[max_face_nodes * max_face_nodes] = {0};
+  add_face_mass(g, conductance, M);  // int h_c N_a N_b
+  for (int a = 0; a < n; ++a) {
+    double jump = 0.0;
+    for (int b = 0; b < n; ++b) jump += M[a * n + b] * (T[b] - T[n + b]);
+    R[a] = jump;
+    R[n + a] = -jump;
+  }
+  if (!J) return;
+  for (int a = 0; a < n; ++a)
+    for (int b = 0; b < n; ++b) {
+      const double v = M[a * n + b];
+      J[a * m + b] = v;
+      J[a * m + n + b] = -v;
+      J[(n + a) * m + b] = -v;
+      J[(n + a) * m + n + b] = v;
+    }
+}
+
 double face_heat_in(const FaceGeometry& g, const BoundaryCondition& bc, const double* T) {
   double R[max_face_nodes];
   face_local_terms(g, bc, T, JacobianKind::picard, R, nullptr);

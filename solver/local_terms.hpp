@@ -30,6 +30,10 @@ void tet_local_terms(const TetGeometry& g, const RegionProperties& region,
 void face_local_terms(const FaceGeometry& g, const BoundaryCondition& bc, const double* T, JacobianKind kind,
                       double* R, double* J);
 
+// A cut face with thermal contact conductance h_c: nodes 0..n-1 are the side behind,
+// n..2n-1 the side in front. R_a = +-int h_c (T_behind - T_front) N_a; J = h_c [M -M; -M M].
+void contact_local_terms(const FaceGeometry& g, double conductance, const double* T, double* R, double* J);
+
 // Heat entering the body through one face under its condition, W (positive into the body):
 // int [ q_in - h(T)(T - T_inf) - eps sigma (T^4 - T_sur^4) ] dA.
 double face_heat_in(const FaceGeometry& g, const BoundaryCondition& bc, const double* T);

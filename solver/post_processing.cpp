@@ -107,6 +107,22 @@ std::vector<double> nodal_residual(const Mesh& mesh, const ThermalProblem& probl
     face_local_terms(face_geometry(mesh, f), bc, T, JacobianKind::exact, R, nullptr);
     for (int a = 0; a < npf; ++a) residual[nodes[a]] += R[a];
   }
+  // Thermal contact across cut faces couples both sides (whole-body residuals only).
+  if (!element_mask)
+    for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
+      const BoundaryCondition& bc = problem.boundaries[mesh.face_boundary[f]];
+      if (!mesh.face_is_split(f) || !bc.contact_conductance) continue;
+      double R[2 * max_face_nodes], T[2 * max_face_nodes];
+      for (int a = 0; a < npf; ++a) {
+        T[a] = temperature[mesh.face(f)[a]];
+        T[npf + a] = temperature[mesh.face_twin(f)[a]];
+      }
+      contact_local_terms(face_geometry(mesh, f), *bc.contact_conductance, T, R, nullptr);
+      for (int a = 0; a < npf; ++a) {
+        residual[mesh.face(f)[a]] += R[a];
+        residual[mesh.face_twin(f)[a]] += R[npf + a];
+      }
+    }
   return residual;
 }
 
@@ -320,7 +336,7 @@ Results post_process(const Mesh& mesh, const ThermalProblem& problem, const std:
   out.boundaries.resize(mesh.boundaries.size());
   std::vector<double> bt_integral(mesh.boundaries.size(), 0.0);
   std::vector<char> bfirst(mesh.boundaries.size(), 1);
-  std::vector<char> has_exterior_face(mesh.boundaries.size(), 0);
+  std::vector<char> has_exterior_face(mesh.boundaries.size(), 0), is_contact(mesh.boundaries.size(), 0);
   for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) out.boundaries[b].name = mesh.boundaries[b].name;
   for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
     const int b = mesh.face_boundary[f];
@@ -336,8 +352,21 @@ Results post_process(const Mesh& mesh, const ThermalProblem& problem, const std:
     for (int a = 0; a < mesh.nodes_per_face(); ++a)
       update_extremes(br.temperature, br.hottest, T[mesh.face(f)[a]], mesh.node(mesh.face(f)[a]), fst);
     bfirst[b] = fst;
-    if (neighbours[f][0] < 0 || neighbours[f][1] < 0) has_exterior_face[b] = 1;
     const BoundaryCondition& bc = problem.boundaries[b];
+    if (mesh.face_is_split(f)) {  // cut for thermal contact: internal, heat h_c (T_behind - T_front)
+      is_contact[b] = 1;
+      if (bc.contact_conductance) {
+        double t_both[2 * max_face_nodes], R[2 * max_face_nodes];
+        for (int a = 0; a < mesh.nodes_per_face(); ++a) {
+          t_both[a] = T[mesh.face(f)[a]];
+          t_both[mesh.nodes_per_face() + a] = T[mesh.face_twin(f)[a]];
+        }
+        contact_local_terms(g, *bc.contact_conductance, t_both, R, nullptr);
+        for (int a = 0; a < mesh.nodes_per_face(); ++a) br.heat_rate += R[a];
+      }
+      continue;
+    }
+    if (neighbours[f][0] < 0 || neighbours[f][1] < 0) has_exterior_face[b] = 1;
     if (!bc.is_fixed() && !bc.is_insulated()) {
       double t_local[max_face_nodes];
       for (int a = 0; a < mesh.nodes_per_face(); ++a) t_local[a] = T[mesh.face(f)[a]];
@@ -352,7 +381,7 @@ Results post_process(const Mesh& mesh, const ThermalProblem& problem, const std:
   for (const auto& bc : problem.boundaries) any_fixed |= bc.is_fixed();
   if (any_fixed) add_reaction_heat_rates(mesh, problem, nodal_residual(mesh, problem, T), T, neighbours, out.boundaries);
   for (std::size_t b = 0; b < mesh.boundaries.size(); ++b)
-    if (out.boundaries[b].internal && !problem.boundaries[b].is_fixed())
+    if (out.boundaries[b].internal && !problem.boundaries[b].is_fixed() && !is_contact[b])
       out.boundaries[b].heat_rate = internal_heat_rate(mesh, problem, T, static_cast<std::int32_t>(b), neighbours);
 
   // Energy balance over the exterior boundaries and the sources.

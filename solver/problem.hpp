@@ -26,6 +26,9 @@ struct BoundaryCondition {
   // Fixed temperature varying over the surface, K (verification with closed forms);
   // takes the place of `temperature` where set.
   std::function<double(const std::array<double, 3>&)> temperature_field;
+  // Thermal contact conductance across a cut internal surface, W/(m2 K): the heat
+  // h_c (T_behind - T_in_front) crosses it (Mesh::face_twin_nodes holds the other side).
+  std::optional<double> contact_conductance;
 
   bool is_fixed() const { return temperature.has_value() || bool(temperature_field); }
   bool is_insulated() const { return !temperature && heat_flux == 0.0 && !convection && !radiation; }

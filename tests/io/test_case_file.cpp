@@ -347,9 +347,9 @@ TEST_F(CaseFileTest, UnsupportedFeaturesSaySo) {
   EXPECT_TRUE(has(transient, ":1: analysis.type: 'transient' is not supported by this version of hearth yet; "
                              "allowed now: steady"));
 
-  const std::string interfaces = error_of(minimal_case + "interfaces:\n  shell_contact: {conductance: 2000}\n");
-  EXPECT_TRUE(has(interfaces, ":16: interfaces: interfaces (thermal contact conductance across named internal "
-                              "surfaces) is not supported by this version of hearth yet; remove it for now"));
+  // Interfaces are read now; a non-positive conductance is refused at its line.
+  const std::string interfaces = error_of(minimal_case + "interfaces:\n  shell_contact: {conductance: -5}\n");
+  EXPECT_TRUE(has(interfaces, ":17: interfaces.shell_contact.conductance")) << interfaces;
 }
 
 TEST_F(CaseFileTest, YamlSyntaxErrorGivesLineAndColumn) {

@@ -10,6 +10,7 @@
 #include "io/case_file.hpp"
 #include "io/input_error.hpp"
 #include "mesh/gmsh_mesher.hpp"
+#include "mesh/interface_split.hpp"
 #include "mesh/mesh_topology.hpp"
 #include "solver/steady_solver.hpp"
 #include "solver/point_locator.hpp"
@@ -60,7 +61,31 @@ Mesh mesh_case(const Case& c, int threads, const Progress& progress) {
   request.refinements = c.mesh_refinements;
   request.threads = threads;
   request.progress = [&progress](const std::string& line) { progress.say(line); };
-  return build_mesh(request);
+  Mesh mesh = build_mesh(request);
+  cut_interfaces(c, mesh, progress);
+  return mesh;
+}
+
+void cut_interfaces(const Case& c, Mesh& mesh, const Progress& progress) {
+  if (c.interfaces.empty()) return;
+  const std::vector<bool> internal = internal_boundaries(mesh);
+  for (const auto& [name, spec] : c.interfaces) {
+    const int b = index_of(mesh.boundaries, name);
+    if (b < 0)
+      throw InputError(spec.place.str() + ": the geometry has no surface named '" + name +
+                       "'; its surfaces are: " + join(names_of(mesh.boundaries)));
+    if (!internal[b])
+      throw InputError(spec.place.str() + ": '" + name +
+                       "' is not an internal surface (it has material on one side only); a contact conductance "
+                       "joins two volumes along a surface between them: give the contact as a physical surface "
+                       "shared by both volumes (BooleanFragments in the geometry script)");
+    if (c.boundaries.count(name))
+      throw InputError(c.boundaries.at(name).place.str() + ": '" + name +
+                       "' is an interface (thermal contact) and cannot also carry a boundary condition; remove "
+                       "one of the two");
+    const std::size_t copies = split_interface(mesh, b);
+    progress.say("interface " + name + ": " + std::to_string(copies) + " nodes doubled for the contact");
+  }
 }
 
 void check_names_against_mesh(const Case& c, const Mesh& mesh) {
@@ -112,6 +137,8 @@ ThermalProblem make_problem(const Case& c, const Mesh& mesh) {
   }
   problem.boundaries.resize(mesh.boundaries.size());
   for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) {
+    const auto contact = c.interfaces.find(mesh.boundaries[b].name);
+    if (contact != c.interfaces.end()) problem.boundaries[b].contact_conductance = contact->second.conductance;
     const auto it = c.boundaries.find(mesh.boundaries[b].name);
     if (it == c.boundaries.end()) continue;
     const BoundarySpec& spec = it->second;
@@ -144,6 +171,10 @@ std::vector<std::string> describe_conditions(const Mesh& mesh, const ThermalProb
   std::vector<std::string> out;
   const std::vector<bool> internal = internal_boundaries(mesh);
   for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) {
+    if (problem.boundaries[b].contact_conductance) {
+      out.push_back("contact");
+      continue;
+    }
     if (internal[b] && !problem.boundaries[b].is_fixed()) {
       out.push_back("internal");
       continue;

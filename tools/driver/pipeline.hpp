@@ -26,6 +26,10 @@ struct CommonOptions {
 
 Case load_case(const CommonOptions& options, const Progress& progress);
 Mesh mesh_case(const Case& c, int threads, const Progress& progress);
+// Cuts open every internal surface named under interfaces (thermal contact). Throws
+// InputError for a name the geometry lacks, a surface that is not internal, or one that
+// also has a boundary condition.
+void cut_interfaces(const Case& c, Mesh& mesh, const Progress& progress);
 
 // Every region and boundary named in the case exists in the mesh, and every volume has
 // a material; conditions that need an exterior surface are on one. Throws InputError
