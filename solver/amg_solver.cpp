@@ -50,25 +50,25 @@ class AmgCgSolver final : public LinearSolver {
   ~AmgCgSolver() override { release(); }
   std::string name() const override { return symmetric_ ? "boomeramg-pcg" : "boomeramg-gmres"; }
 
+  void keep_preconditioner(bool keep) override { keep_ = keep; }
+
   void setup(const CsrMatrix& A) override {
     const auto t0 = std::chrono::steady_clock::now();
+    if (keep_ && amg_ && A_ && A_->n == A.n) {
+      // New matrix for the Krylov method; the hierarchy (and the matrix it was built
+      // on, which its finest level refers to) stays.
+      destroy_krylov();
+      if (ij_matrix_ != amg_matrix_) HYPRE_IJMatrixDestroy(ij_matrix_);
+      A_ = &A;
+      build_matrix(A);
+      create_krylov(true);
+      setup_seconds_ = seconds_since(t0);
+      return;
+    }
     release();
     A_ = &A;
-    const HYPRE_BigInt last = A.n - 1;
-    HYPRE_IJMatrixCreate(MPI_COMM_SELF, 0, last, 0, last, &ij_matrix_);
-    HYPRE_IJMatrixSetObjectType(ij_matrix_, HYPRE_PARCSR);
-    std::vector<HYPRE_Int> sizes(A.n);
-    std::vector<HYPRE_BigInt> rows(A.n);
-    for (std::int32_t i = 0; i < A.n; ++i) {
-      sizes[i] = static_cast<HYPRE_Int>(A.row_ptr[i + 1] - A.row_ptr[i]);
-      rows[i] = i;
-    }
-    HYPRE_IJMatrixSetRowSizes(ij_matrix_, sizes.data());
-    HYPRE_IJMatrixInitialize(ij_matrix_);
-    HYPRE_IJMatrixSetValues(ij_matrix_, A.n, sizes.data(), rows.data(), A.col.data(), A.val.data());
-    HYPRE_IJMatrixAssemble(ij_matrix_);
-    HYPRE_IJMatrixGetObject(ij_matrix_, reinterpret_cast<void**>(&parcsr_));
-
+    build_matrix(A);
+    amg_matrix_ = ij_matrix_;
     create_vector(&ij_b_, &par_b_);
     create_vector(&ij_x_, &par_x_);
 
@@ -86,7 +86,34 @@ class AmgCgSolver final : public LinearSolver {
     HYPRE_BoomerAMGSetMaxIter(amg_, 1);
     HYPRE_BoomerAMGSetTol(amg_, 0.0);
     HYPRE_BoomerAMGSetPrintLevel(amg_, 0);
+    create_krylov(false);
+    setup_seconds_ = seconds_since(t0);
+  }
 
+ private:
+  static HYPRE_Int keep_hierarchy(HYPRE_Solver, HYPRE_Matrix, HYPRE_Vector, HYPRE_Vector) { return 0; }
+
+  void build_matrix(const CsrMatrix& A) {
+    const HYPRE_BigInt last = A.n - 1;
+    HYPRE_IJMatrixCreate(MPI_COMM_SELF, 0, last, 0, last, &ij_matrix_);
+    HYPRE_IJMatrixSetObjectType(ij_matrix_, HYPRE_PARCSR);
+    std::vector<HYPRE_Int> sizes(A.n);
+    std::vector<HYPRE_BigInt> rows(A.n);
+    for (std::int32_t i = 0; i < A.n; ++i) {
+      sizes[i] = static_cast<HYPRE_Int>(A.row_ptr[i + 1] - A.row_ptr[i]);
+      rows[i] = i;
+    }
+    HYPRE_IJMatrixSetRowSizes(ij_matrix_, sizes.data());
+    HYPRE_IJMatrixInitialize(ij_matrix_);
+    HYPRE_IJMatrixSetValues(ij_matrix_, A.n, sizes.data(), rows.data(), A.col.data(), A.val.data());
+    HYPRE_IJMatrixAssemble(ij_matrix_);
+    HYPRE_IJMatrixGetObject(ij_matrix_, reinterpret_cast<void**>(&parcsr_));
+  }
+
+  // CG or GMRES on parcsr_, preconditioned by amg_ (set up now unless it is kept).
+  void create_krylov(bool kept) {
+    const HYPRE_PtrToSolverFcn amg_setup = kept ? reinterpret_cast<HYPRE_PtrToSolverFcn>(keep_hierarchy)
+                                                : reinterpret_cast<HYPRE_PtrToSolverFcn>(HYPRE_BoomerAMGSetup);
     if (symmetric_) {
       HYPRE_ParCSRPCGCreate(MPI_COMM_SELF, &pcg_);
       HYPRE_PCGSetTol(pcg_, tolerance_);
@@ -95,8 +122,7 @@ class AmgCgSolver final : public LinearSolver {
       HYPRE_PCGSetTwoNorm(pcg_, 1);
       HYPRE_PCGSetPrintLevel(pcg_, 0);
       HYPRE_PCGSetLogging(pcg_, 1);
-      HYPRE_PCGSetPrecond(pcg_, reinterpret_cast<HYPRE_PtrToSolverFcn>(HYPRE_BoomerAMGSolve),
-                          reinterpret_cast<HYPRE_PtrToSolverFcn>(HYPRE_BoomerAMGSetup), amg_);
+      HYPRE_PCGSetPrecond(pcg_, reinterpret_cast<HYPRE_PtrToSolverFcn>(HYPRE_BoomerAMGSolve), amg_setup, amg_);
       HYPRE_ParCSRPCGSetup(pcg_, parcsr_, par_b_, par_x_);
     } else {
       // Restarted GMRES(50) with right preconditioning; the relative residual it
@@ -108,13 +134,17 @@ class AmgCgSolver final : public LinearSolver {
       HYPRE_GMRESSetMaxIter(pcg_, max_iterations_);
       HYPRE_GMRESSetPrintLevel(pcg_, 0);
       HYPRE_GMRESSetLogging(pcg_, 1);
-      HYPRE_GMRESSetPrecond(pcg_, reinterpret_cast<HYPRE_PtrToSolverFcn>(HYPRE_BoomerAMGSolve),
-                            reinterpret_cast<HYPRE_PtrToSolverFcn>(HYPRE_BoomerAMGSetup), amg_);
+      HYPRE_GMRESSetPrecond(pcg_, reinterpret_cast<HYPRE_PtrToSolverFcn>(HYPRE_BoomerAMGSolve), amg_setup, amg_);
       HYPRE_ParCSRGMRESSetup(pcg_, parcsr_, par_b_, par_x_);
     }
-    setup_seconds_ = seconds_since(t0);
   }
 
+  void destroy_krylov() {
+    if (pcg_) symmetric_ ? HYPRE_ParCSRPCGDestroy(pcg_) : HYPRE_ParCSRGMRESDestroy(pcg_);
+    pcg_ = nullptr;
+  }
+
+ public:
   LinearSolveReport solve(const std::vector<double>& b, std::vector<double>& x) override {
     LinearSolveReport report;
     report.solver = name();
@@ -163,20 +193,23 @@ class AmgCgSolver final : public LinearSolver {
     HYPRE_IJVectorSetValues(ij, A_->n, rows.data(), values.data());
   }
   void release() {
-    if (pcg_) symmetric_ ? HYPRE_ParCSRPCGDestroy(pcg_) : HYPRE_ParCSRGMRESDestroy(pcg_);
+    destroy_krylov();
     if (amg_) HYPRE_BoomerAMGDestroy(amg_);
     if (ij_b_) HYPRE_IJVectorDestroy(ij_b_);
     if (ij_x_) HYPRE_IJVectorDestroy(ij_x_);
+    if (amg_matrix_ && amg_matrix_ != ij_matrix_) HYPRE_IJMatrixDestroy(amg_matrix_);
     if (ij_matrix_) HYPRE_IJMatrixDestroy(ij_matrix_);
-    pcg_ = amg_ = nullptr;
+    amg_ = nullptr;
     ij_b_ = ij_x_ = nullptr;
-    ij_matrix_ = nullptr;
+    ij_matrix_ = amg_matrix_ = nullptr;
   }
 
   double tolerance_;
   int max_iterations_;
   bool symmetric_;
+  bool keep_ = false;
   const CsrMatrix* A_ = nullptr;
+  HYPRE_IJMatrix amg_matrix_ = nullptr;  // the matrix the hierarchy was built on
   HYPRE_IJMatrix ij_matrix_ = nullptr;
   HYPRE_ParCSRMatrix parcsr_ = nullptr;
   HYPRE_IJVector ij_b_ = nullptr, ij_x_ = nullptr;

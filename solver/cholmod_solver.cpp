@@ -45,8 +45,15 @@ class CholmodSolver final : public LinearSolver {
     view.dtype = CHOLMOD_DOUBLE;
     view.sorted = 1;
     view.packed = 1;
-    if (factor_) cholmod_l_free_factor(&factor_, &common_);
-    factor_ = cholmod_l_analyze(&view, &common_);
+    // The symbolic analysis (ordering, supernodes) is kept for a matrix of the same
+    // pattern, as in Newton steps; only the numerical factorisation is redone.
+    const bool same_pattern = factor_ && A_ && analysed_n_ == A.n && analysed_nnz_ == A.nnz();
+    if (!same_pattern) {
+      if (factor_) cholmod_l_free_factor(&factor_, &common_);
+      factor_ = cholmod_l_analyze(&view, &common_);
+      analysed_n_ = A.n;
+      analysed_nnz_ = A.nnz();
+    }
     if (!factor_) throw std::runtime_error("CHOLMOD analysis failed (status " + std::to_string(common_.status) + ")");
     cholmod_l_factorize(&view, factor_, &common_);
     not_positive_definite_ = common_.status == CHOLMOD_NOT_POSDEF;
@@ -92,6 +99,7 @@ class CholmodSolver final : public LinearSolver {
   const CsrMatrix* A_ = nullptr;
   std::vector<SuiteSparse_long> col_ptr_, row_idx_;
   bool not_positive_definite_ = false;
+  std::int64_t analysed_n_ = -1, analysed_nnz_ = -1;
   double setup_seconds_ = 0.0;
 };
 

@@ -41,6 +41,10 @@ class LinearSolver {
   virtual std::string name() const = 0;
   // Prepares for A (factorisation or hierarchy). A must stay alive until the last solve.
   virtual void setup(const CsrMatrix& A) = 0;
+  // When true, the next setup() of a matrix with the same pattern may keep the
+  // preconditioner built for an earlier one (Newton steps): the Krylov method still
+  // solves the new matrix. Direct solvers keep their symbolic analysis in any case.
+  virtual void keep_preconditioner(bool /*keep*/) {}
   // Solves A x = b; x holds the initial guess on entry (used by iterative solvers).
   virtual LinearSolveReport solve(const std::vector<double>& b, std::vector<double>& x) = 0;
 };

@@ -127,10 +127,20 @@ SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, con
     }
     if (it == nonlinear.max_iterations) break;
     for (double& v : R) v = -v;
+    // From the second Newton step on, keep the multigrid hierarchy of the first exact
+    // Jacobian (the Krylov method still solves the current one); rebuild it if that fails.
+    linear->keep_preconditioner(it >= 2);
     linear->setup(A);
     std::fill(delta.begin(), delta.end(), 0.0);
     solution.linear = linear->solve(R, delta);
     solution.linear_iterations += solution.linear.iterations;
+    if (!solution.linear.converged() && it >= 2) {
+      linear->keep_preconditioner(false);
+      linear->setup(A);
+      std::fill(delta.begin(), delta.end(), 0.0);
+      solution.linear = linear->solve(R, delta);
+      solution.linear_iterations += solution.linear.iterations;
+    }
     if (!solution.linear.converged()) break;
     // Backtracking line search on |R| (Armijo with c = 1e-4); the Picard start is taken whole.
     double alpha = 1.0, r_try = 0.0;
