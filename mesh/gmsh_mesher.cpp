@@ -315,8 +315,8 @@ std::string generate_volume_mesh(GmshSession& session, const MeshRequest& reques
   gmsh::option::setNumber("Mesh.MaxNumThreads2D", 1);
   gmsh::option::setNumber("Mesh.MaxNumThreads3D", threads);
   gmsh::option::setNumber("Mesh.Algorithm3D", kHxt);
-  std::string hxt_failure;
-  try {
+  std::string hxt_failure = "HXT not requested";
+  if (request.algorithm != "delaunay") try {
     session.guarded("HXT", [] { gmsh::model::mesh::generate(3); });
     const std::string missing = volumes_without_tets();
     if (missing.empty()) return "HXT";
@@ -324,7 +324,7 @@ std::string generate_volume_mesh(GmshSession& session, const MeshRequest& reques
   } catch (const MeshError& error) {
     hxt_failure = error.what();
   }
-  session.report("meshing " + file + ": " + hxt_failure + "; retrying with Delaunay");
+  if (request.algorithm != "delaunay") session.report("meshing " + file + ": " + hxt_failure + "; retrying with Delaunay");
   session.guarded(file + ": Delaunay meshing", [] {
     gmsh::model::mesh::clear();
     gmsh::option::setNumber("Mesh.Algorithm3D", kDelaunay);

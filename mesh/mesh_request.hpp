@@ -20,6 +20,9 @@ struct MeshRequest {
   int refinements = 0;                        // uniform splits after meshing (studies)
   int threads = 0;                            // meshing threads; 0: two
   bool renumber = true;                       // reverse Cuthill-McKee for locality
+  // 3D algorithm: "hxt" (Gmsh's parallel Delaunay, falling back to "delaunay" where it
+  // fails) or "delaunay" alone (the retry when HXT crashed in a worker process).
+  std::string algorithm = "hxt";
   std::function<void(const std::string&)> progress;  // one line per stage; may be empty
 
   double length_scale() const { return length_unit == "mm" ? 1e-3 : 1.0; }

@@ -9,6 +9,7 @@
 #include <mpi.h>
 
 #include <chrono>
+#include <cstdio>
 #include <cstdlib>
 #include <mutex>
 #include <stdexcept>
@@ -21,6 +22,12 @@ namespace {
 
 double seconds_since(std::chrono::steady_clock::time_point t0) {
   return std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+}
+
+std::string scientific(double value) {
+  char buffer[32];
+  std::snprintf(buffer, sizeof buffer, "%.2e", value);
+  return buffer;
 }
 
 void ensure_mpi() {
@@ -172,9 +179,8 @@ class AmgCgSolver final : public LinearSolver {
       report.status = report.relative_residual == report.relative_residual ? SolveStatus::not_converged
                                                                              : SolveStatus::breakdown;
       report.message = std::string(symmetric_ ? "multigrid-preconditioned CG" : "multigrid-preconditioned GMRES") +
-                       " reached relative residual " +
-                       std::to_string(report.relative_residual) + " after " + std::to_string(iterations) +
-                       " iterations (tolerance " + std::to_string(tolerance_) + ")";
+                       " reached relative residual " + scientific(report.relative_residual) + " after " +
+                       std::to_string(iterations) + " iterations (tolerance " + scientific(tolerance_) + ")";
     }
     return report;
   }

@@ -386,8 +386,11 @@ Results post_process(const Mesh& mesh, const ThermalProblem& problem, const std:
 
   // Energy balance over the exterior boundaries and the sources.
   EnergyBalance& eb = out.balance;
-  for (const auto& b : out.boundaries) {
-    if (b.internal) continue;
+  for (std::size_t k = 0; k < out.boundaries.size(); ++k) {
+    const BoundaryResult& b = out.boundaries[k];
+    // Internal surfaces pass heat from one part of the body to another, except a fixed
+    // temperature inside, which adds or removes heat like an outer one.
+    if (b.internal && !problem.boundaries[k].is_fixed()) continue;
     if (b.heat_rate > 0)
       eb.boundary_in += b.heat_rate;
     else

@@ -143,15 +143,16 @@ SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, con
     }
     if (!solution.linear.converged()) break;
     // Backtracking line search on |R| (Armijo with c = 1e-4); the Picard start is taken whole.
-    double alpha = 1.0, r_try = 0.0;
-    for (int halving = 0; halving <= 8; ++halving, alpha *= 0.5) {
+    double alpha = 1.0;
+    for (int halving = 0;; ++halving) {
       T_try = T;
       for (std::int32_t r = 0; r < dofs.n_free(); ++r) T_try[dofs.free_nodes[r]] += alpha * delta[r];
-      if (it == 0) break;
+      if (it == 0 || halving == 8) break;  // the last, smallest step is taken as it is
       assembler.assemble_terms(problem, T_try, kind, nullptr, R_try);
-      r_try = norm(R_try);
+      const double r_try = norm(R_try);
       // Accept a sufficient decrease, or a residual already at round-off level.
       if (r_try <= (1.0 - 1e-4 * alpha) * r_norm || r_try <= 1e-3 * nonlinear.tolerance * r0) break;
+      alpha *= 0.5;
     }
     last_update = 0.0;
     for (std::int32_t r = 0; r < dofs.n_free(); ++r) last_update = std::max(last_update, std::abs(alpha * delta[r]));

@@ -11,6 +11,7 @@
 #include "mesh/mesh_error.hpp"
 #include "tools/driver/commands.hpp"
 #include "tools/driver/errors.hpp"
+#include "tools/driver/mesh_worker.hpp"
 
 #ifndef HEARTH_VERSION
 #define HEARTH_VERSION "unknown"
@@ -24,7 +25,7 @@ void add_common(CLI::App* command, hearth::CommonOptions& options, bool with_out
       ->type_name("KEY=VALUE")
       ->take_all()
       ->allow_extra_args(false);
-  command->add_option("--threads", options.threads, "threads for meshing and assembly (default: all cores)")
+  command->add_option("--threads", options.threads, "threads for assembly and post-processing (default: all cores) and meshing (default: 2)")
       ->check(CLI::PositiveNumber);
   command->add_flag("--quiet", options.quiet, "no progress lines; warnings and errors only");
   if (with_out) command->add_option("--out", options.out, "output folder (default: output.directory of the case)");
@@ -35,6 +36,9 @@ void add_common(CLI::App* command, hearth::CommonOptions& options, bool with_out
 }  // namespace
 
 int main(int argc, char** argv) {
+  // The meshing process the driver starts (tools/driver/mesh_worker.hpp); not for users.
+  if (argc >= 4 && std::string(argv[1]) == hearth::mesh_worker_verb)
+    return hearth::mesh_worker_command(argv[2], argv[3], argc >= 5 && std::string(argv[4]) == "--quiet");
   CLI::App app{"hearth " HEARTH_VERSION
                ": steady heat conduction in 3D solids by finite elements.\n"
                "Results are engineering estimates: have them checked by a qualified person against local codes "

@@ -1,4 +1,4 @@
-// Outcomes the command line maps to exit statuses (see docs/command-line.md).
+// Outcomes the command line maps to exit statuses (see docs/user-guide.md).
 #pragma once
 
 #include <stdexcept>

@@ -41,6 +41,7 @@ int mesh_command(const CommonOptions& options) {
   write_vtu(staged.path() / "mesh.vtu", mesh, c.units, fields);
   write_summary(staged.path() / "mesh.json", figures);
   staged.commit();
+  if (options.quiet) return 0;
   std::fprintf(stderr, "mesh: %zu nodes, %zu elements, min quality %.3f, mean %.3f\n", mesh.n_nodes(), mesh.n_tets(),
                qmin, mesh.n_tets() ? qsum / mesh.n_tets() : 0.0);
   std::fprintf(stderr, "quality (gamma) histogram, bins of 0.1:");

@@ -10,6 +10,7 @@
 #include "io/case_file.hpp"
 #include "io/input_error.hpp"
 #include "mesh/gmsh_mesher.hpp"
+#include "tools/driver/mesh_worker.hpp"
 #include "mesh/interface_split.hpp"
 #include "mesh/mesh_topology.hpp"
 #include "solver/steady_solver.hpp"
@@ -61,7 +62,7 @@ Mesh mesh_case(const Case& c, int threads, const Progress& progress) {
   request.refinements = c.mesh_refinements;
   request.threads = threads;
   request.progress = [&progress](const std::string& line) { progress.say(line); };
-  Mesh mesh = build_mesh(request);
+  Mesh mesh = build_mesh_isolated(request, progress.quiet());
   cut_interfaces(c, mesh, progress);
   return mesh;
 }

@@ -12,6 +12,7 @@ class Progress {
   void say(const std::string& line) const;   // "[  1.2 s] line"
   void always(const std::string& line) const;  // printed even when quiet (warnings)
   double elapsed() const;
+  bool quiet() const { return quiet_; }
 
  private:
   bool quiet_;

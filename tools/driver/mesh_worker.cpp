@@ -1,0 +1,184 @@
+// Request and mesh passed through files in a private temporary folder; the child is
+// this program (/proc/self/exe), started with posix_spawn.
+#include "tools/driver/mesh_worker.hpp"
+
+#include <spawn.h>
+#include <sys/wait.h>
+#include <unistd.h>
+
+#include <cstdio>
+#include <cstring>
+#include <filesystem>
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <stdexcept>
+
+#include "mesh/gmsh_mesher.hpp"
+#include "mesh/mesh_error.hpp"
+
+extern char** environ;
+
+namespace hearth {
+
+namespace fs = std::filesystem;
+
+namespace {
+
+// Binary layout: counts as uint64, then raw arrays; strings as length + bytes.
+template <class T>
+void put_vector(std::ofstream& out, const std::vector<T>& v) {
+  const std::uint64_t n = v.size();
+  out.write(reinterpret_cast<const char*>(&n), sizeof n);
+  out.write(reinterpret_cast<const char*>(v.data()), static_cast<std::streamsize>(n * sizeof(T)));
+}
+template <class T>
+void get_vector(std::ifstream& in, std::vector<T>& v) {
+  std::uint64_t n = 0;
+  in.read(reinterpret_cast<char*>(&n), sizeof n);
+  v.resize(n);
+  in.read(reinterpret_cast<char*>(v.data()), static_cast<std::streamsize>(n * sizeof(T)));
+}
+void put_entities(std::ofstream& out, const std::vector<NamedEntity>& entities) {
+  const std::uint64_t n = entities.size();
+  out.write(reinterpret_cast<const char*>(&n), sizeof n);
+  for (const auto& e : entities) {
+    put_vector(out, std::vector<char>(e.name.begin(), e.name.end()));
+    out.write(reinterpret_cast<const char*>(&e.tag), sizeof e.tag);
+  }
+}
+void get_entities(std::ifstream& in, std::vector<NamedEntity>& entities) {
+  std::uint64_t n = 0;
+  in.read(reinterpret_cast<char*>(&n), sizeof n);
+  entities.resize(n);
+  for (auto& e : entities) {
+    std::vector<char> name;
+    get_vector(in, name);
+    e.name.assign(name.begin(), name.end());
+    in.read(reinterpret_cast<char*>(&e.tag), sizeof e.tag);
+  }
+}
+
+void write_mesh(const fs::path& path, const Mesh& m) {
+  std::ofstream out(path, std::ios::binary);
+  out.write(reinterpret_cast<const char*>(&m.order), sizeof m.order);
+  put_vector(out, m.coords);
+  put_vector(out, m.tet_nodes);
+  put_vector(out, m.tet_region);
+  put_vector(out, m.face_nodes);
+  put_vector(out, m.face_boundary);
+  put_vector(out, m.tet_quality);
+  put_entities(out, m.regions);
+  put_entities(out, m.boundaries);
+  const std::uint64_t unnamed = m.unnamed_exterior_faces;
+  out.write(reinterpret_cast<const char*>(&unnamed), sizeof unnamed);
+  if (!out) throw std::runtime_error("cannot write the mesh to " + path.string());
+}
+
+Mesh read_mesh(const fs::path& path) {
+  std::ifstream in(path, std::ios::binary);
+  Mesh m;
+  in.read(reinterpret_cast<char*>(&m.order), sizeof m.order);
+  get_vector(in, m.coords);
+  get_vector(in, m.tet_nodes);
+  get_vector(in, m.tet_region);
+  get_vector(in, m.face_nodes);
+  get_vector(in, m.face_boundary);
+  get_vector(in, m.tet_quality);
+  get_entities(in, m.regions);
+  get_entities(in, m.boundaries);
+  std::uint64_t unnamed = 0;
+  in.read(reinterpret_cast<char*>(&unnamed), sizeof unnamed);
+  m.unnamed_exterior_faces = unnamed;
+  if (!in) throw std::runtime_error("cannot read the mesh from the meshing process");
+  return m;
+}
+
+nlohmann::json request_json(const MeshRequest& r) {
+  return {{"geometry_file", r.geometry_file.string()}, {"length_unit", r.length_unit}, {"size", r.size},
+          {"order", r.order},  {"local_sizes", r.local_sizes},  {"refinements", r.refinements},
+          {"threads", r.threads}, {"renumber", r.renumber},     {"algorithm", r.algorithm}};
+}
+
+MeshRequest request_from_json(const nlohmann::json& j) {
+  MeshRequest r;
+  r.geometry_file = j.at("geometry_file").get<std::string>();
+  r.length_unit = j.at("length_unit").get<std::string>();
+  r.size = j.at("size").get<double>();
+  r.order = j.at("order").get<int>();
+  r.local_sizes = j.at("local_sizes").get<std::map<std::string, double>>();
+  r.refinements = j.at("refinements").get<int>();
+  r.threads = j.at("threads").get<int>();
+  r.renumber = j.at("renumber").get<bool>();
+  r.algorithm = j.at("algorithm").get<std::string>();
+  return r;
+}
+
+// Runs the worker; returns the wait status.
+int run_worker(const fs::path& request_file, const fs::path& mesh_file, bool quiet) {
+  std::string exe = fs::read_symlink("/proc/self/exe").string();
+  std::vector<std::string> args = {exe, mesh_worker_verb, request_file.string(), mesh_file.string()};
+  if (quiet) args.push_back("--quiet");
+  std::vector<char*> argv;
+  for (auto& a : args) argv.push_back(a.data());
+  argv.push_back(nullptr);
+  pid_t pid = 0;
+  if (posix_spawn(&pid, exe.c_str(), nullptr, nullptr, argv.data(), environ) != 0)
+    throw std::runtime_error("cannot start the meshing process " + exe);
+  int status = 0;
+  while (waitpid(pid, &status, 0) < 0 && errno == EINTR) {
+  }
+  return status;
+}
+
+}  // namespace
+
+Mesh build_mesh_isolated(const MeshRequest& request, bool quiet) {
+  char pattern[] = "/tmp/hearth-mesh-XXXXXX";
+  if (!mkdtemp(pattern)) throw std::runtime_error("cannot create a temporary folder for meshing");
+  const fs::path dir = pattern;
+  struct Cleanup {
+    fs::path dir;
+    ~Cleanup() {
+      std::error_code ignored;
+      fs::remove_all(dir, ignored);
+    }
+  } cleanup{dir};
+  MeshRequest attempt = request;
+  for (int round = 0; round < 2; ++round) {
+    const fs::path request_file = dir / "request.json", mesh_file = dir / "mesh.bin";
+    std::ofstream(request_file) << request_json(attempt).dump();
+    const int status = run_worker(request_file, mesh_file, quiet);
+    if (WIFEXITED(status) && WEXITSTATUS(status) == 0) return read_mesh(mesh_file);
+    if (WIFEXITED(status)) {
+      std::ifstream error(mesh_file.string() + ".error");
+      std::string text((std::istreambuf_iterator<char>(error)), std::istreambuf_iterator<char>());
+      throw MeshError(text.empty() ? "meshing failed (status " + std::to_string(WEXITSTATUS(status)) + ")" : text);
+    }
+    const int signal = WIFSIGNALED(status) ? WTERMSIG(status) : 0;
+    if (signal == SIGINT || signal == SIGTERM) throw MeshError("meshing was interrupted");
+    if (attempt.algorithm == "delaunay")
+      throw MeshError(request.geometry_file.filename().string() + ": Gmsh crashed while meshing (signal " +
+                      std::to_string(signal) + ", also with the Delaunay algorithm); try another mesh size or " +
+                      "a local size on small features");
+    if (!quiet)
+      std::fprintf(stderr, "meshing %s: Gmsh's HXT algorithm crashed (signal %d, %s); meshing again with Delaunay\n",
+                   request.geometry_file.filename().c_str(), signal, strsignal(signal));
+    attempt.algorithm = "delaunay";
+  }
+  throw MeshError("meshing failed");
+}
+
+int mesh_worker_command(const std::string& request_file, const std::string& mesh_file, bool quiet) {
+  std::ifstream in(request_file);
+  MeshRequest request = request_from_json(nlohmann::json::parse(in));
+  if (!quiet) request.progress = [](const std::string& line) { std::fprintf(stderr, "           %s\n", line.c_str()); };
+  try {
+    write_mesh(mesh_file, build_mesh(request));
+    return 0;
+  } catch (const std::exception& e) {
+    std::ofstream(mesh_file + ".error") << e.what();
+    return 1;
+  }
+}
+
+}  // namespace hearth
