@@ -8,6 +8,8 @@
 #include <HYPRE_parcsr_ls.h>
 #include <mpi.h>
 
+#include <sched.h>
+
 #include <chrono>
 #include <cstdio>
 #include <cstdlib>
@@ -36,8 +38,15 @@ void ensure_mpi() {
     int initialised = 0;
     MPI_Initialized(&initialised);
     if (!initialised) {
+      // Open MPI binds a singleton process to one core, which would leave the OpenMP
+      // threads of assembly and post-processing sharing it: keep the process's own
+      // CPU set, before and after.
+      setenv("OMPI_MCA_hwloc_base_binding_policy", "none", 0);
+      cpu_set_t cpus;
+      const bool have_cpus = sched_getaffinity(0, sizeof cpus, &cpus) == 0;
       int provided = 0;
       MPI_Init_thread(nullptr, nullptr, MPI_THREAD_FUNNELED, &provided);
+      if (have_cpus) sched_setaffinity(0, sizeof cpus, &cpus);
       std::atexit([] {
         int finalised = 0;
         MPI_Finalized(&finalised);

@@ -44,18 +44,21 @@ void tet_local_terms(const TetGeometry& g, const RegionProperties& region,
                      const std::function<double(const std::array<double, 3>&)>& source_field, int source_degree,
                      const double* T, JacobianKind kind, double* R, double* J) {
   const int n = tet_nodes(g.order);
-  double F[max_tet_nodes] = {0};
+  double F[max_tet_nodes];
+  std::fill(F, F + n, 0.0);
   add_tet_source(g, region.heat_source, F);                            // int f N_a
   if (source_field) add_tet_source_field(g, source_field, source_degree, F);
   if (!region.conductivity.depends_on_temperature()) {
-    double K[max_tet_nodes * max_tet_nodes] = {0};
+    // Constant K: the element matrix itself is the Jacobian; R = K T - F.
+    double local[max_tet_nodes * max_tet_nodes];
+    double* K = J ? J : local;
+    std::fill(K, K + n * n, 0.0);
     add_constant_conductance(g, region.conductivity, K);               // int grad N_a . K grad N_b
     for (int a = 0; a < n; ++a) {
       double r = -F[a];
       for (int b = 0; b < n; ++b) r += K[a * n + b] * T[b];
       R[a] = r;
     }
-    if (J) std::copy(K, K + n * n, J);
     return;
   }
   for (int a = 0; a < n; ++a) R[a] = -F[a];

@@ -9,12 +9,6 @@ namespace {
 
 const double pi = std::acos(-1.0);
 
-std::string prism(double length, double width) {
-  return "SetFactory(\"OpenCASCADE\");\nBox(1) = {0, 0, 0, " + std::to_string(length) + ", " + std::to_string(width) +
-         ", " + std::to_string(width) +
-         "};\nPhysical Volume(\"wall\") = {1};\nPhysical Surface(\"x0\") = {1};\nPhysical Surface(\"x1\") = {2};\n";
-}
-
 // k = 0.8 (1 + 0.001 T[degC]) as a two-point table in kelvin, exact inside 0..1000 degC
 // and beyond the range of the checks (the table is held constant outside it).
 Conductivity linear_in_temperature() {

@@ -9,13 +9,6 @@
 namespace hearth::testing {
 namespace {
 
-// OCC box: surface 1 is x = xmin, 2 is x = xmax; the other four are lateral (insulated).
-std::string prism(double length, double width) {
-  return "SetFactory(\"OpenCASCADE\");\nBox(1) = {0, 0, 0, " + std::to_string(length) + ", " + std::to_string(width) +
-         ", " + std::to_string(width) +
-         "};\nPhysical Volume(\"wall\") = {1};\nPhysical Surface(\"x0\") = {1};\nPhysical Surface(\"x1\") = {2};\n";
-}
-
 class PlaneWall : public ::testing::TestWithParam<int> {};
 
 // C01(a). Source: Fourier's law, 1D steady solution T(x) = T0 - (T0 - T1) x / L

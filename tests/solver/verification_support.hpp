@@ -38,6 +38,14 @@ inline Mesh mesh_script(const std::string& name, const std::string& script, doub
   return build_mesh(request);
 }
 
+// Box 0 <= x <= length, 0 <= y, z <= width: region "wall", x = 0 face "x0", x = length
+// face "x1" (OCC box surfaces 1 and 2); the four lateral faces unnamed (insulated).
+inline std::string prism(double length, double width) {
+  return "SetFactory(\"OpenCASCADE\");\nBox(1) = {0, 0, 0, " + std::to_string(length) + ", " + std::to_string(width) +
+         ", " + std::to_string(width) +
+         "};\nPhysical Volume(\"wall\") = {1};\nPhysical Surface(\"x0\") = {1};\nPhysical Surface(\"x1\") = {2};\n";
+}
+
 inline int region_index(const Mesh& mesh, const std::string& name) {
   for (std::size_t i = 0; i < mesh.regions.size(); ++i)
     if (mesh.regions[i].name == name) return static_cast<int>(i);
