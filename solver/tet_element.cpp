@@ -206,11 +206,5 @@ void face_shape_integrals(const FaceGeometry& g, double* integrals) {
   }
 }
 
-void add_face_load(const FaceGeometry& g, double q_in, double* F) {
-  if (q_in == 0.0) return;
-  double integrals[max_face_nodes];
-  face_shape_integrals(g, integrals);
-  for (int a = 0; a < face_nodes(g.order); ++a) F[a] += q_in * integrals[a];
-}
 
 }  // namespace hearth

@@ -50,8 +50,6 @@ double face_jacobian(const FaceGeometry& g, double s, double t, Point* normal = 
 double face_area(const FaceGeometry& g);
 // M[a][b] += h * int N_a N_b dA.
 void add_face_mass(const FaceGeometry& g, double h, double* M);
-// F[a] += q * int N_a dA (q constant, W/m2).
-void add_face_load(const FaceGeometry& g, double q, double* F);
 // int N_a dA for each node (weights for splitting nodal quantities between faces).
 void face_shape_integrals(const FaceGeometry& g, double* integrals);
 
