@@ -28,5 +28,6 @@ class Interrupted : public std::runtime_error {
 // Installs handlers that only set a flag; stages call check_interrupt() between steps.
 void install_interrupt_handlers();
 void check_interrupt(const std::string& where);
+bool interrupt_requested();
 
 }  // namespace hearth

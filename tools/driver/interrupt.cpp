@@ -15,6 +15,8 @@ void install_interrupt_handlers() {
   std::signal(SIGTERM, on_signal);
 }
 
+bool interrupt_requested() { return received_signal != 0; }
+
 void check_interrupt(const std::string& where) {
   if (received_signal == SIGINT) throw Interrupted("interrupted (SIGINT) " + where, exit_interrupted);
   if (received_signal == SIGTERM) throw Interrupted("terminated (SIGTERM) " + where, exit_terminated);

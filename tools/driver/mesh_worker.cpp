@@ -2,6 +2,7 @@
 // this program (/proc/self/exe), started with posix_spawn.
 #include "tools/driver/mesh_worker.hpp"
 
+#include <signal.h>
 #include <spawn.h>
 #include <sys/wait.h>
 #include <unistd.h>
@@ -15,6 +16,7 @@
 
 #include "mesh/gmsh_mesher.hpp"
 #include "mesh/mesh_error.hpp"
+#include "tools/driver/errors.hpp"
 
 extern char** environ;
 
@@ -124,9 +126,20 @@ int run_worker(const fs::path& request_file, const fs::path& mesh_file, bool qui
   pid_t pid = 0;
   if (posix_spawn(&pid, exe.c_str(), nullptr, nullptr, argv.data(), environ) != 0)
     throw std::runtime_error("cannot start the meshing process " + exe);
+  // Poll, so that an interrupt of this process stops the worker too (Ctrl-C reaches the
+  // whole process group anyway; a SIGTERM sent to this process alone would not).
   int status = 0;
-  while (waitpid(pid, &status, 0) < 0 && errno == EINTR) {
+  bool forwarded = false;
+  for (;;) {
+    const pid_t done = waitpid(pid, &status, WNOHANG);
+    if (done == pid || (done < 0 && errno != EINTR)) break;
+    if (interrupt_requested() && !forwarded) {
+      kill(pid, SIGTERM);
+      forwarded = true;
+    }
+    usleep(20000);
   }
+  check_interrupt("while meshing; nothing was written");
   return status;
 }
 
@@ -155,7 +168,8 @@ Mesh build_mesh_isolated(const MeshRequest& request, bool quiet) {
       throw MeshError(text.empty() ? "meshing failed (status " + std::to_string(WEXITSTATUS(status)) + ")" : text);
     }
     const int signal = WIFSIGNALED(status) ? WTERMSIG(status) : 0;
-    if (signal == SIGINT || signal == SIGTERM) throw MeshError("meshing was interrupted");
+    if (signal == SIGINT) throw Interrupted("interrupted (SIGINT) while meshing; nothing was written", exit_interrupted);
+    if (signal == SIGTERM) throw Interrupted("terminated (SIGTERM) while meshing; nothing was written", exit_terminated);
     if (attempt.algorithm == "delaunay")
       throw MeshError(request.geometry_file.filename().string() + ": Gmsh crashed while meshing (signal " +
                       std::to_string(signal) + ", also with the Delaunay algorithm); try another mesh size or " +
