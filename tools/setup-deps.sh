@@ -4,7 +4,7 @@
 set -euo pipefail
 
 packages=(
-  build-essential cmake pkg-config git
+  build-essential cmake pkg-config git procps
   libgmsh-dev gmsh               # meshing SDK (with OpenCASCADE for STEP/BREP)
   libeigen3-dev                  # dense/sparse linear algebra
   libvtk9-dev                    # VTK XML writers
