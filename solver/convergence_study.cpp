@@ -1,0 +1,198 @@
+// Grid convergence index after Celik et al. 2008, J. Fluids Eng. 130(7), 078001
+// (fine = 1, medium = 2, coarse = 3).
+#include "solver/convergence_study.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <stdexcept>
+
+namespace hearth {
+namespace {
+
+constexpr double round_off = 1e-12;  // relative differences below this are "none"
+constexpr double max_order = 10.0;
+constexpr int max_iterations = 1000;
+
+std::string format_number(const char* format, double x) {
+  char buffer[64];
+  std::snprintf(buffer, sizeof buffer, format, x);
+  return buffer;
+}
+
+void validate(const std::vector<StudyLevel>& levels) {
+  for (std::size_t i = 0; i < levels.size(); ++i) {
+    const StudyLevel& l = levels[i];
+    if (!std::isfinite(l.h) || l.h <= 0)
+      throw std::invalid_argument("convergence study: level " + std::to_string(i) + " has a cell size that is not positive");
+    if (!std::isfinite(l.value))
+      throw std::invalid_argument("convergence study: level " + std::to_string(i) + " has a value that is not finite");
+    if (i > 0 && !(l.h < levels[i - 1].h))
+      throw std::invalid_argument("convergence study: levels must be ordered coarse to fine (h strictly decreasing)");
+  }
+}
+
+// Relative difference |a - b| / |fine|; NaN when the finer value is zero.
+double relative(double fine, double other) {
+  return fine == 0 ? std::numeric_limits<double>::quiet_NaN() : std::abs((fine - other) / fine);
+}
+
+// Solves p ln r21 = ln|e32/e21| + ln((r21^p - 1)/(r32^p - 1)) (monotonic case, s = +1)
+// by Celik's fixed-point iteration, without the outer absolute value so that a sequence
+// whose differences do not shrink gives no positive order instead of a fake one. Where
+// the iteration is unstable (r32 much larger than r21), bisection on the same equation
+// takes over. Returns false when the equation has no root p > 0 (the differences shrink
+// more slowly than any power of h, i.e. e32/e21 <= ln r32 / ln r21); p > 2 max_order
+// stands for "above the cap".
+bool solve_order(double r21, double r32, double log_ratio, double& p) {
+  const double ln21 = std::log(r21), ln32 = std::log(r32);
+  auto q = [&](double x) { return std::log(std::expm1(x * ln21) / std::expm1(x * ln32)); };
+  if (r21 == r32) {
+    p = log_ratio / ln21;
+    return p > 0;
+  }
+  p = log_ratio > 0 ? log_ratio / ln21 : 1.0;
+  for (int k = 0; k < max_iterations; ++k) {
+    const double next = (log_ratio + q(p)) / ln21;
+    if (!std::isfinite(next) || next <= 0) break;
+    if (next > 2 * max_order) {
+      p = next;
+      return true;
+    }
+    const bool settled = std::abs(next - p) <= 1e-13 * next;
+    p = next;
+    if (settled) return true;
+  }
+  // The residual F(p) = p ln r21 - q(p) - ln|e32/e21| increases with p.
+  auto residual = [&](double x) { return x * ln21 - q(x) - log_ratio; };
+  double lo = 1e-9, hi = 2 * max_order;
+  if (!(residual(lo) < 0)) return false;
+  if (residual(hi) < 0) {
+    p = 2 * hi;
+    return true;
+  }
+  for (int k = 0; k < 200 && hi - lo > 1e-14 * hi; ++k) {
+    const double mid = 0.5 * (lo + hi);
+    (residual(mid) < 0 ? lo : hi) = mid;
+  }
+  p = 0.5 * (lo + hi);
+  return true;
+}
+
+}  // namespace
+
+const char* to_string(ConvergenceKind kind) {
+  switch (kind) {
+    case ConvergenceKind::monotonic: return "monotonic";
+    case ConvergenceKind::oscillatory: return "oscillatory";
+    case ConvergenceKind::divergent: return "divergent";
+    case ConvergenceKind::converged_exactly: return "converged_exactly";
+    case ConvergenceKind::too_few_levels: return "too_few_levels";
+  }
+  return "unknown";
+}
+
+ConvergenceEstimate estimate_convergence(const std::vector<StudyLevel>& levels, double formal_order) {
+  ConvergenceEstimate e;
+  validate(levels);
+  const std::size_t n = levels.size();
+  if (n < 2) {
+    e.kind = ConvergenceKind::too_few_levels;
+    e.status = "too few levels: at least two are needed";
+    return e;
+  }
+
+  const StudyLevel& fine = levels[n - 1];
+  const StudyLevel& medium = levels[n - 2];
+  const double phi1 = fine.value, phi2 = medium.value;
+  const double r21 = medium.h / fine.h;
+  const double e21 = phi2 - phi1;
+
+  if (n == 2) {
+    if (!std::isfinite(formal_order) || formal_order <= 0)
+      throw std::invalid_argument("convergence study: two levels need a positive formal order");
+    e.safety_factor = 3.0;
+    const double scale = std::max(std::abs(phi1), std::abs(phi2));
+    if (std::abs(e21) <= round_off * scale) {
+      e.kind = ConvergenceKind::converged_exactly;
+      e.extrapolated = phi1;
+      e.gci_fine = 0;
+      e.status = "converged exactly: the two levels agree to round-off";
+      return e;
+    }
+    const double rp = std::pow(r21, formal_order);
+    e.kind = ConvergenceKind::too_few_levels;
+    e.extrapolated = (rp * phi1 - phi2) / (rp - 1);
+    e.gci_fine = e.safety_factor * relative(phi1, phi2) / (rp - 1);
+    e.status = "two levels: formal order " + format_number("%g", formal_order) +
+               " assumed, factor of safety 3, no observed order";
+    return e;
+  }
+
+  e.safety_factor = 1.25;
+  const double phi3 = levels[n - 3].value;
+  const double r32 = levels[n - 3].h / medium.h;
+  const double e32 = phi3 - phi2;
+  const double scale = std::max({std::abs(phi1), std::abs(phi2), std::abs(phi3)});
+  const bool e21_zero = std::abs(e21) <= round_off * scale;
+  const bool e32_zero = std::abs(e32) <= round_off * scale;
+
+  if (e21_zero && e32_zero) {
+    e.kind = ConvergenceKind::converged_exactly;
+    e.extrapolated = phi1;
+    e.gci_fine = 0;
+    e.gci_medium = 0;
+    e.status = "converged exactly: the levels agree to round-off";
+    return e;
+  }
+  if (e21_zero) {
+    e.kind = ConvergenceKind::converged_exactly;
+    e.extrapolated = phi1;
+    e.gci_fine = 0;
+    e.status = "converged exactly on the two finest levels; the coarsest differs";
+    return e;
+  }
+  if (e32_zero) {
+    e.kind = ConvergenceKind::divergent;
+    e.status = "divergent: the two coarser levels agree and the finest moves away";
+    return e;
+  }
+  if (e32 / e21 < 0) {
+    e.kind = ConvergenceKind::oscillatory;
+    e.status = "oscillatory: no order";
+    return e;
+  }
+
+  double p = 0;
+  if (!solve_order(r21, r32, std::log(std::abs(e32 / e21)), p)) {
+    e.kind = ConvergenceKind::divergent;
+    e.status = "divergent: differences do not shrink with refinement (no positive order)";
+    return e;
+  }
+  bool capped = false;
+  if (p > max_order) {
+    p = max_order;
+    capped = true;
+  }
+
+  e.kind = ConvergenceKind::monotonic;
+  e.observed_order = p;
+  const double r21p = std::pow(r21, p), r32p = std::pow(r32, p);
+  e.extrapolated = (r21p * phi1 - phi2) / (r21p - 1);
+  e.gci_fine = e.safety_factor * relative(phi1, phi2) / (r21p - 1);
+  e.gci_medium = e.safety_factor * relative(phi2, phi3) / (r32p - 1);
+  e.asymptotic_ratio = e.gci_medium / (r21p * e.gci_fine);
+
+  if (capped) {
+    e.status = "monotonic, order capped at 10: GCI unreliable";
+  } else if (!std::isfinite(e.asymptotic_ratio)) {
+    e.status = "monotonic, relative GCI undefined (a level's value is zero)";
+  } else if (std::abs(e.asymptotic_ratio - 1) <= asymptotic_ratio_tolerance) {
+    e.status = "monotonic, asymptotic";
+  } else {
+    e.status = "monotonic, not asymptotic (GCI ratio " + format_number("%.3g", e.asymptotic_ratio) + ")";
+  }
+  return e;
+}
+
+}  // namespace hearth
