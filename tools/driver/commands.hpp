@@ -6,7 +6,16 @@
 
 namespace hearth {
 
+struct StudyOptions {
+  CommonOptions common;
+  int levels = 3;                       // --levels
+  double ratio = 1.5;                   // --ratio: size divided by this from level to level
+  std::vector<double> sizes;            // --sizes (case length unit); replaces levels and ratio
+  std::vector<std::string> quantities;  // --quantity: extra dotted paths into summary.json
+};
+
 int run_command(const CommonOptions& options);
+int study_command(const StudyOptions& options);
 int check_command(const CommonOptions& options);
 int mesh_command(const CommonOptions& options);
 int materials_command();  // lists the shipped material library on stdout

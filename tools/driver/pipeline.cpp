@@ -2,6 +2,8 @@
 #include "tools/driver/pipeline.hpp"
 
 #include <algorithm>
+#include <fstream>
+#include <iterator>
 #include <cmath>
 #include <cstdio>
 #include <set>
@@ -45,6 +47,24 @@ std::string fmt(const char* format, double value) {
 }
 
 }  // namespace
+
+std::string input_digest(const Case& c, const CommonOptions& options) {
+  std::uint64_t hash = 1469598103934665603ULL;  // FNV-1a offset basis
+  auto mix = [&hash](const std::string& bytes) {
+    for (unsigned char b : bytes) hash = (hash ^ b) * 1099511628211ULL;
+    hash = (hash ^ 0xff) * 1099511628211ULL;  // separator
+  };
+  auto file_bytes = [](const std::filesystem::path& path) {
+    std::ifstream in(path, std::ios::binary);
+    return std::string((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+  };
+  mix(file_bytes(c.file));
+  mix(file_bytes(c.geometry_file));
+  for (const auto& s : options.sets) mix(s);
+  char text[17];
+  std::snprintf(text, sizeof text, "%016llx", static_cast<unsigned long long>(hash));
+  return text;
+}
 
 Case load_case(const CommonOptions& options, const Progress& progress) {
   Case c = read_case_file(options.case_path, options.sets);

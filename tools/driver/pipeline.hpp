@@ -22,7 +22,13 @@ struct CommonOptions {
   int threads = 0;                // --threads N (0: all cores)
   bool quiet = false;
   bool summary_only = false;      // also print summary.json to stdout
+  std::string command_line;       // as typed, for run.json
+  bool warnings_to_terminal = true;  // false for the levels of a study
 };
+
+// A digest of the run's inputs (case file, geometry file, overrides, threads excluded):
+// FNV-1a 64-bit of their bytes, as 16 hex digits. Equal digests: same inputs.
+std::string input_digest(const Case& c, const CommonOptions& options);
 
 Case load_case(const CommonOptions& options, const Progress& progress);
 Mesh mesh_case(const Case& c, int threads, const Progress& progress);

@@ -1,4 +1,6 @@
 // hearth run: read, mesh, solve, post-process, write; results staged then swapped in.
+#include <omp.h>
+
 #include <cstdio>
 #include <iostream>
 
@@ -40,7 +42,7 @@ RunRecord start_record(const Case& c, const Mesh& mesh) {
 
 void write_results(const Case& c, const Mesh& mesh, const std::vector<double>& temperature, const RunRecord& record,
                    const std::vector<std::vector<LineSample>>& lines, const std::filesystem::path& dir,
-                   const char* vtu_name, const CommonOptions& options) {
+                   const char* vtu_name, const CommonOptions& options, double elapsed_seconds) {
   VtuFields fields;
   fields.temperature = &temperature;
   fields.nodal_flux = &record.results.nodal_flux;
@@ -57,6 +59,15 @@ void write_results(const Case& c, const Mesh& mesh, const std::vector<double>& t
     }
     write_probes_csv(dir / "probes.csv", names, {{0.0, values}}, c.units);
   }
+  // How the result was made, so that a colleague can make it again.
+  const nlohmann::json provenance = {{"hearth_version", HEARTH_VERSION},
+                                     {"case_file", std::filesystem::absolute(c.file).string()},
+                                     {"input_digest", input_digest(c, options)},
+                                     {"overrides", options.sets},
+                                     {"command_line", options.command_line},
+                                     {"threads", omp_get_max_threads()},
+                                     {"seconds", {{"solve", record.seconds}, {"total", elapsed_seconds}}}};
+  write_summary(dir / "run.json", provenance);
   const auto summary = summary_json(record, c.units);
   write_summary(dir / "summary.json", summary);  // last: its presence marks a whole result
   if (options.summary_only) std::cout << summary.dump(2) << std::endl;
@@ -105,11 +116,11 @@ int run_command(const CommonOptions& options) {
 
   StagedDirectory staged(out);
   write_results(c, mesh, solution.temperature, record, lines, staged.path(),
-                record.converged ? "temperature.vtu" : "temperature_unconverged.vtu", options);
+                record.converged ? "temperature.vtu" : "temperature_unconverged.vtu", options, progress.elapsed());
   check_interrupt("before results were put in place; the previous results are unchanged");
   staged.commit();
   if (!options.quiet) print_human_summary(c, record, insulated, out);
-  else
+  else if (options.warnings_to_terminal)
     for (const auto& w : record.warnings) progress.always("warning: " + w);
   if (!record.converged)
     throw SolveFailed("the solve did not converge: " + record.failure + "; results marked unconverged are in " +
