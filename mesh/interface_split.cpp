@@ -9,22 +9,18 @@
 #include <unordered_set>
 
 #include "mesh/mesh_error.hpp"
+#include "mesh/mesh_topology.hpp"
 
 namespace hearth {
 
 namespace {
 
-using Triple = std::array<std::int32_t, 3>;
+using Triple = SortedTriangle;
 struct TripleHash {
   std::size_t operator()(const Triple& k) const {
     return std::hash<std::int64_t>()((std::int64_t(k[0]) << 32) ^ k[1]) ^ (std::size_t(k[2]) * 0x9e3779b97f4a7c15ULL);
   }
 };
-Triple sorted(std::int32_t a, std::int32_t b, std::int32_t c) {
-  Triple t{a, b, c};
-  std::sort(t.begin(), t.end());
-  return t;
-}
 constexpr int tet_faces[4][3] = {{0, 1, 2}, {0, 1, 3}, {0, 2, 3}, {1, 2, 3}};
 
 std::array<double, 3> minus(const std::array<double, 3>& a, const std::array<double, 3>& b) {
@@ -40,7 +36,7 @@ std::size_t split_interface(Mesh& mesh, int boundary) {
   for (std::size_t f = 0; f < mesh.n_faces(); ++f)
     if (mesh.face_boundary[f] == boundary) {
       const std::int32_t* n = mesh.face(f);
-      surface.insert(sorted(n[0], n[1], n[2]));
+      surface.insert(sorted_triangle(n[0], n[1], n[2]));
       for (int a = 0; a < npf; ++a) surface_nodes.insert(n[a]);
     }
   const std::string name = mesh.boundaries[boundary].name;
@@ -54,7 +50,7 @@ std::size_t split_interface(Mesh& mesh, int boundary) {
     for (int a = 0; a < npe; ++a)
       if (surface_nodes.count(n[a])) node_elements[n[a]].push_back(static_cast<std::int32_t>(e));
     for (int k = 0; k < 4; ++k) {
-      const Triple key = sorted(n[tet_faces[k][0]], n[tet_faces[k][1]], n[tet_faces[k][2]]);
+      const Triple key = sorted_triangle(n[tet_faces[k][0]], n[tet_faces[k][1]], n[tet_faces[k][2]]);
       if (surface.count(key)) sides.emplace(key, std::array<std::int32_t, 2>{-1, -1});
     }
   }
@@ -64,7 +60,7 @@ std::size_t split_interface(Mesh& mesh, int boundary) {
     const auto p0 = mesh.node(n[0]);
     const auto u = minus(mesh.node(n[1]), p0), v = minus(mesh.node(n[2]), p0);
     const std::array<double, 3> normal{u[1] * v[2] - u[2] * v[1], u[2] * v[0] - u[0] * v[2], u[0] * v[1] - u[1] * v[0]};
-    auto& side = sides[sorted(n[0], n[1], n[2])];
+    auto& side = sides[sorted_triangle(n[0], n[1], n[2])];
     for (const std::int32_t e : node_elements[n[0]]) {
       const std::int32_t* t = mesh.tet(e);
       int shared = 0, other = -1;
@@ -105,7 +101,7 @@ std::size_t split_interface(Mesh& mesh, int boundary) {
         for (int a = 0; a < 4; ++a)
           for (int b = 0; b < 4; ++b)
             if (mesh.tet(e)[a] == mesh.tet(g)[b]) common.push_back(mesh.tet(e)[a]);
-        if (common.size() != 3 || surface.count(sorted(common[0], common[1], common[2]))) continue;
+        if (common.size() != 3 || surface.count(sorted_triangle(common[0], common[1], common[2]))) continue;
         if (back.count(g)) leaks = true;
         reached.insert(g);
         stack.push_back(g);
@@ -131,7 +127,7 @@ std::size_t split_interface(Mesh& mesh, int boundary) {
   std::unordered_map<Triple, std::int32_t, TripleHash> element_of_face;
   for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
     const std::int32_t* n = mesh.tet(e);
-    for (int k = 0; k < 4; ++k) element_of_face[sorted(n[tet_faces[k][0]], n[tet_faces[k][1]], n[tet_faces[k][2]])] = e;
+    for (int k = 0; k < 4; ++k) element_of_face[sorted_triangle(n[tet_faces[k][0]], n[tet_faces[k][1]], n[tet_faces[k][2]])] = e;
   }
   for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
     std::int32_t* n = &mesh.face_nodes[f * npf];
@@ -145,13 +141,13 @@ std::size_t split_interface(Mesh& mesh, int boundary) {
     // A face whose nodes now exist only as copies in its element follows the element.
     bool touches = false;
     for (int a = 0; a < npf; ++a) touches |= copy_of.count(n[a]) > 0;
-    if (!touches || element_of_face.count(sorted(n[0], n[1], n[2]))) continue;
+    if (!touches || element_of_face.count(sorted_triangle(n[0], n[1], n[2]))) continue;
     std::int32_t m[6];
     for (int a = 0; a < npf; ++a) {
       const auto it = copy_of.find(n[a]);
       m[a] = it == copy_of.end() ? n[a] : it->second;
     }
-    if (element_of_face.count(sorted(m[0], m[1], m[2])))
+    if (element_of_face.count(sorted_triangle(m[0], m[1], m[2])))
       for (int a = 0; a < npf; ++a) n[a] = m[a];
   }
   return copy_of.size();

@@ -20,8 +20,6 @@ double PiecewiseLinear::slope(double t) const {
   return (y[i] - y[i - 1]) / (x[i] - x[i - 1]);
 }
 
-double PiecewiseLinear::min_value() const { return y.empty() ? 0.0 : *std::min_element(y.begin(), y.end()); }
-
 Conductivity Conductivity::isotropic(PiecewiseLinear k) {
   Conductivity c;
   c.principal[0] = std::move(k);

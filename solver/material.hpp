@@ -19,7 +19,6 @@ struct PiecewiseLinear {
   bool is_constant() const { return x.size() <= 1; }
   double value(double t) const;
   double slope(double t) const;  // d value / d t (0 beyond the ends)
-  double min_value() const;
 };
 
 using Matrix3 = std::array<std::array<double, 3>, 3>;

@@ -17,7 +17,8 @@ int check_command(const CommonOptions& options) {
   check_names_against_mesh(c, mesh);
   const ThermalProblem problem = make_problem(c, mesh);
   check_determined(c, mesh, problem);
-  sample_probes(c, mesh, std::vector<double>(mesh.n_nodes(), 0.0));  // throws for a probe outside
+  if (!c.probes.empty())  // throws for a probe outside
+    sample_probes(c, PointLocator(mesh), std::vector<double>(mesh.n_nodes(), 0.0));
 
   double qmin = 1.0;
   for (double q : mesh.tet_quality) qmin = std::min(qmin, q);

@@ -226,10 +226,9 @@ void check_determined(const Case& c, const Mesh& mesh, const ThermalProblem& pro
                      "undetermined; add a 'temperature' or 'convection' condition to at least one boundary");
 }
 
-std::vector<ProbeRecord> sample_probes(const Case& c, const Mesh& mesh, const std::vector<double>& temperature) {
+std::vector<ProbeRecord> sample_probes(const Case& c, const PointLocator& locator,
+                                       const std::vector<double>& temperature) {
   std::vector<ProbeRecord> out;
-  if (c.probes.empty()) return out;
-  const PointLocator locator(mesh);
   for (const auto& probe : c.probes) {
     const auto hit = locator.locate(probe.point);
     if (!hit) {
@@ -244,12 +243,10 @@ std::vector<ProbeRecord> sample_probes(const Case& c, const Mesh& mesh, const st
   return out;
 }
 
-std::vector<std::vector<LineSample>> sample_lines(const Case& c, const Mesh& mesh,
+std::vector<std::vector<LineSample>> sample_lines(const Case& c, const PointLocator& locator,
                                                   const std::vector<double>& temperature,
                                                   std::vector<std::string>& warnings) {
   std::vector<std::vector<LineSample>> out;
-  if (c.lines.empty()) return out;
-  const PointLocator locator(mesh);
   for (const auto& line : c.lines) {
     std::vector<LineSample> samples;
     const double length = std::sqrt(std::pow(line.to[0] - line.from[0], 2) + std::pow(line.to[1] - line.from[1], 2) +

@@ -9,6 +9,7 @@
 #include "io/run_record.hpp"
 #include "mesh/mesh.hpp"
 #include "solver/linear_solver.hpp"
+#include "solver/point_locator.hpp"
 #include "solver/problem.hpp"
 #include "solver/steady_solver.hpp"
 #include "tools/driver/progress.hpp"
@@ -54,9 +55,11 @@ std::vector<std::string> describe_conditions(const Mesh& mesh, const ThermalProb
 // Names of the exterior boundaries left insulated (no entry in the case).
 std::vector<std::string> insulated_boundaries(const Case& c, const Mesh& mesh);
 
-// Probes (InputError for one outside the body) and lines (outside points left empty).
-std::vector<ProbeRecord> sample_probes(const Case& c, const Mesh& mesh, const std::vector<double>& temperature);
-std::vector<std::vector<LineSample>> sample_lines(const Case& c, const Mesh& mesh,
+// Probes (InputError for one outside the body) and lines (outside points left empty),
+// located with one PointLocator built for the mesh.
+std::vector<ProbeRecord> sample_probes(const Case& c, const PointLocator& locator,
+                                       const std::vector<double>& temperature);
+std::vector<std::vector<LineSample>> sample_lines(const Case& c, const PointLocator& locator,
                                                   const std::vector<double>& temperature,
                                                   std::vector<std::string>& warnings);
 

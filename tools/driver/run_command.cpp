@@ -2,6 +2,7 @@
 #include <omp.h>
 
 #include <cstdio>
+#include <optional>
 #include <iostream>
 
 #include "io/input_error.hpp"
@@ -85,7 +86,10 @@ int run_command(const CommonOptions& options) {
   check_interrupt("after meshing; nothing was written");
   const ThermalProblem problem = make_problem(c, mesh);
   check_determined(c, mesh, problem);
-  sample_probes(c, mesh, std::vector<double>(mesh.n_nodes(), 0.0));  // a probe outside: error before the solve
+  // One locator for probes and lines; a probe outside the body is an error before the solve.
+  std::optional<PointLocator> locator;
+  if (!c.probes.empty() || !c.lines.empty()) locator.emplace(mesh);
+  if (locator) sample_probes(c, *locator, std::vector<double>(mesh.n_nodes(), 0.0));
 
   RunRecord record = start_record(c, mesh);
   record.warnings = c.warnings;  // from reading the case (e.g. axes made orthogonal)
@@ -107,8 +111,11 @@ int run_command(const CommonOptions& options) {
                               "); install Debian's libopenblas0-pthread for a several times faster factorisation");
 
   record.results = post_process(mesh, problem, solution.temperature);
-  record.probes = sample_probes(c, mesh, solution.temperature);
-  const auto lines = sample_lines(c, mesh, solution.temperature, record.warnings);
+  std::vector<std::vector<LineSample>> lines;
+  if (locator) {
+    record.probes = sample_probes(c, *locator, solution.temperature);
+    lines = sample_lines(c, *locator, solution.temperature, record.warnings);
+  }
   record.service = service_checks(c, mesh, problem, solution.temperature, record.warnings);
   record.touch = touch_checks(c, mesh, record.results, record.warnings);
   const auto insulated = insulated_boundaries(c, mesh);

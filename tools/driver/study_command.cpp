@@ -169,8 +169,10 @@ int study_command(const StudyOptions& study) {
   csv << "quantity,level,size,dofs,value\n";
   std::printf("\n%-44s %14s %10s %14s %10s %10s  %s\n", "quantity", "finest", "order", "extrapolated", "GCI fine",
               "ratio", "status");
+  double safety_factor = 1.25;
   for (const auto& q : quantities) {
     const ConvergenceEstimate e = estimate_convergence(q.levels, formal_order);
+    safety_factor = e.safety_factor;
     nlohmann::json entry = {{"unit", q.unit},
                             {"h", nlohmann::json::array()},
                             {"dofs", nlohmann::json::array()},
@@ -200,7 +202,7 @@ int study_command(const StudyOptions& study) {
   write_summary(dir / "study.json", out);
   std::printf("\nlevels in %s (level_0 coarsest); GCI with a factor of safety of %.3g; an engineering estimate of "
               "the discretisation error only\n",
-              dir.c_str(), quantities.empty() ? 1.25 : estimate_convergence(quantities[0].levels, formal_order).safety_factor);
+              dir.c_str(), safety_factor);
   return exit_done;
 }
 
