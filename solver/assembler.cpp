@@ -179,6 +179,22 @@ void Assembler::partition_rows() {
            static_cast<std::int32_t>(k));
 }
 
+void add_element_capacity(const Mesh& mesh, const ThermalProblem& problem, std::size_t e, const TetGeometry& g,
+                          const double* T, double* R, double* J) {
+  if (!problem.time_levels) return;
+  const RegionProperties& region = problem.regions[mesh.tet_region[e]];
+  if (!region.capacity) return;
+  const TimeLevels& levels = *problem.time_levels;
+  const std::int32_t* nodes = mesh.tet(e);
+  double T1[max_tet_nodes], T2[max_tet_nodes];
+  const bool second = levels.before_previous && levels.c[2] != 0.0;
+  for (int a = 0; a < mesh.nodes_per_tet(); ++a) {
+    T1[a] = (*levels.previous)[nodes[a]];
+    if (second) T2[a] = (*levels.before_previous)[nodes[a]];
+  }
+  add_capacity_terms(g, {&*region.capacity, levels.c, T1, second ? T2 : nullptr}, T, R, J);
+}
+
 void Assembler::assemble(const ThermalProblem& problem, CsrMatrix& A, std::vector<double>& b) const {
   // The linear system for T_free with the fixed values in place: A = dR/dT and
   // b = -R(T with free values 0), so that A T_free = b.
@@ -223,8 +239,10 @@ void Assembler::assemble_terms(const ThermalProblem& problem, const std::vector<
     for (const std::int32_t e : thread_tets_[t]) {
       const std::int32_t* nodes = mesh_.tet(e);
       for (int a = 0; a < npe; ++a) T[a] = temperature[nodes[a]];
-      tet_local_terms(tet_geometry(mesh_, e), problem.regions[mesh_.tet_region[e]], problem.source_field,
-                      problem.source_field_degree, T, kind, F, values ? K : nullptr);
+      const TetGeometry g = tet_geometry(mesh_, e);
+      tet_local_terms(g, problem.regions[mesh_.tet_region[e]], problem.source_field, problem.source_field_degree, T,
+                      kind, F, values ? K : nullptr);
+      add_element_capacity(mesh_, problem, e, g, T, F, values ? K : nullptr);
       scatter(nodes, npe, &tet_positions_[std::size_t(e) * npe * npe]);
     }
     for (const std::int32_t f : thread_faces_[t]) {

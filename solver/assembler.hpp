@@ -16,6 +16,12 @@ namespace hearth {
 TetGeometry tet_geometry(const Mesh& mesh, std::size_t element);
 FaceGeometry face_geometry(const Mesh& mesh, std::size_t face);
 
+// Adds element e's capacity term of the current time step (problem.time_levels) to its
+// local R and, when J is not null, J. Nothing for a steady problem or a region without
+// heat capacity.
+void add_element_capacity(const Mesh& mesh, const ThermalProblem& problem, std::size_t e, const TetGeometry& g,
+                          const double* T, double* R, double* J);
+
 // Builds the sparsity pattern of the free-node system and, per element and per face,
 // the position in CSR storage of every local (a, b) pair, once. assemble() then writes
 // element matrices straight into place: re-assembly in Newton or time loops costs one

@@ -21,7 +21,101 @@ int face_degree(const FaceGeometry& g, const BoundaryCondition& bc) {
   return g.order == 1 ? 3 : 5;
 }
 
+// rho c N_a N_b is degree 2p on a straight element; a temperature-dependent rho c and
+// curved 10-node elements take more points.
+int capacity_degree(const TetGeometry& g, bool varies) {
+  if (g.order == 1) return varies ? 3 : 2;
+  return g.affine() ? (varies ? 5 : 4) : 6;
+}
+
+double interpolate(const double* N, const double* T, int n) {
+  double t = 0.0;
+  for (int b = 0; b < n; ++b) t += N[b] * T[b];
+  return t;
+}
+
+// int N_a N_b over the reference element (volume 1/6), for the straight-element mass matrix.
+const std::vector<double>& reference_mass(int order) {
+  static const std::vector<double> mass[2] = {[] {
+    std::vector<double> m(16, 0.0);
+    double N[max_tet_nodes];
+    for (const auto& q : tet_rule(2)) {
+      tet_shape_values(1, q.xi, N);
+      for (int a = 0; a < 4; ++a)
+        for (int b = 0; b < 4; ++b) m[a * 4 + b] += q.weight * N[a] * N[b];
+    }
+    return m;
+  }(), [] {
+    std::vector<double> m(100, 0.0);
+    double N[max_tet_nodes];
+    for (const auto& q : tet_rule(4)) {
+      tet_shape_values(2, q.xi, N);
+      for (int a = 0; a < 10; ++a)
+        for (int b = 0; b < 10; ++b) m[a * 10 + b] += q.weight * N[a] * N[b];
+    }
+    return m;
+  }()};
+  return mass[order == 2 ? 1 : 0];
+}
+
+double straight_jacobian(const TetGeometry& g) {
+  double Jac[3][3];
+  return tet_jacobian(g, {0.25, 0.25, 0.25}, Jac);
+}
+
 }  // namespace
+
+void add_capacity_terms(const TetGeometry& g, const CapacityTerm& term, const double* T, double* R, double* J) {
+  const int n = tet_nodes(g.order);
+  const HeatCapacity& k = *term.capacity;
+  if (!k.depends_on_temperature() && g.affine()) {
+    // Constant rho c on a straight element: H is linear in T and the c's sum to zero, so
+    // C = rho c M (c0 T + c1 T_1 + c2 T_2) with the closed-form mass matrix M.
+    const std::vector<double>& M = reference_mass(g.order);
+    const double scale = k.volumetric(0.0) * straight_jacobian(g);
+    double v[max_tet_nodes];
+    for (int b = 0; b < n; ++b)
+      v[b] = term.c[0] * T[b] + term.c[1] * term.T1[b] + (term.T2 ? term.c[2] * term.T2[b] : 0.0);
+    for (int a = 0; a < n; ++a) {
+      double r = 0.0;
+      for (int b = 0; b < n; ++b) r += M[a * n + b] * v[b];
+      R[a] += scale * r;
+      if (J)
+        for (int b = 0; b < n; ++b) J[a * n + b] += scale * term.c[0] * M[a * n + b];
+    }
+    return;
+  }
+  double N[max_tet_nodes], Jac[3][3];
+  for (const auto& q : tet_rule(capacity_degree(g, k.depends_on_temperature()))) {
+    const double w = q.weight * tet_jacobian(g, q.xi, Jac);
+    tet_shape_values(g.order, q.xi, N);
+    const double t = interpolate(N, T, n);
+    double stored = term.c[0] * k.enthalpy(t) + term.c[1] * k.enthalpy(interpolate(N, term.T1, n));
+    if (term.T2 && term.c[2] != 0.0) stored += term.c[2] * k.enthalpy(interpolate(N, term.T2, n));
+    for (int a = 0; a < n; ++a) R[a] += w * stored * N[a];
+    if (!J) continue;
+    const double m = w * term.c[0] * k.volumetric(t);
+    for (int a = 0; a < n; ++a)
+      for (int b = 0; b < n; ++b) J[a * n + b] += m * N[a] * N[b];
+  }
+}
+
+double tet_enthalpy(const TetGeometry& g, const HeatCapacity& capacity, const double* T) {
+  const int n = tet_nodes(g.order);
+  if (!capacity.depends_on_temperature() && g.affine()) {
+    const std::vector<double>& M = reference_mass(g.order);
+    double sum = 0.0;  // sum_ab M_ab (T_b - T_ref): the rows of M sum to int N_b
+    for (int a = 0; a < n; ++a)
+      for (int b = 0; b < n; ++b) sum += M[a * n + b] * (T[b] - HeatCapacity::reference_temperature);
+    return capacity.volumetric(0.0) * straight_jacobian(g) * sum;
+  }
+  double N[max_tet_nodes], Jac[3][3], sum = 0.0;
+  for (const auto& q : tet_rule(capacity_degree(g, capacity.depends_on_temperature()))) {
+    tet_shape_values(g.order, q.xi, N);
+    sum += q.weight * tet_jacobian(g, q.xi, Jac) * capacity.enthalpy(interpolate(N, T, n));
+  }
+  return sum;
+}
 
 void add_constant_conductance(const TetGeometry& g, const Conductivity& k, double* K) {
   if (k.is_isotropic()) return add_tet_conductance(g, k.principal[0].value(0.0), K);

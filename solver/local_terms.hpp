@@ -26,6 +26,21 @@ void tet_local_terms(const TetGeometry& g, const RegionProperties& region,
                      const std::function<double(const std::array<double, 3>&)>& source_field, int source_degree,
                      const double* T, JacobianKind kind, double* R, double* J);
 
+// The capacity term of a time step for one element (see TimeLevels): the element's
+// nodal temperatures at the two previous levels, T2 null when c[2] = 0.
+struct CapacityTerm {
+  const HeatCapacity* capacity = nullptr;
+  std::array<double, 3> c{};
+  const double* T1 = nullptr;
+  const double* T2 = nullptr;
+};
+
+// R += C_a and J += c0 int N_a rho c(T) N_b (the consistent mass matrix).
+void add_capacity_terms(const TetGeometry& g, const CapacityTerm& term, const double* T, double* R, double* J);
+
+// int H(T) dV over one element, J (stored energy relative to HeatCapacity's reference).
+double tet_enthalpy(const TetGeometry& g, const HeatCapacity& capacity, const double* T);
+
 // The same for one boundary triangle under its condition (not fixed).
 void face_local_terms(const FaceGeometry& g, const BoundaryCondition& bc, const double* T, JacobianKind kind,
                       double* R, double* J);

@@ -88,8 +88,10 @@ std::vector<double> nodal_residual(const Mesh& mesh, const ThermalProblem& probl
       if (element_mask && !(*element_mask)[e]) continue;
       const std::int32_t* nodes = mesh.tet(e);
       for (int a = 0; a < npe; ++a) T[a] = temperature[nodes[a]];
-      tet_local_terms(tet_geometry(mesh, e), problem.regions[mesh.tet_region[e]], problem.source_field,
-                      problem.source_field_degree, T, JacobianKind::exact, R, nullptr);
+      const TetGeometry g = tet_geometry(mesh, e);
+      tet_local_terms(g, problem.regions[mesh.tet_region[e]], problem.source_field, problem.source_field_degree, T,
+                      JacobianKind::exact, R, nullptr);
+      add_element_capacity(mesh, problem, e, g, T, R, nullptr);
       for (int a = 0; a < npe; ++a) r[nodes[a]] += R[a];
     }
   }
@@ -290,6 +292,57 @@ void update_extremes(Stats& s, std::array<double, 3>& hottest, double t, const P
 
 }  // namespace
 
+std::vector<double> surface_heat_rates(const Mesh& mesh, const ThermalProblem& problem, const std::vector<double>& T,
+                                       const std::vector<std::array<std::int32_t, 2>>& neighbours) {
+  std::vector<BoundaryResult> boundaries(mesh.boundaries.size());
+  for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
+    const BoundaryCondition& bc = problem.boundaries[mesh.face_boundary[f]];
+    if (mesh.face_is_split(f) || bc.is_fixed() || bc.is_insulated()) continue;
+    double t_local[max_face_nodes];
+    for (int a = 0; a < mesh.nodes_per_face(); ++a) t_local[a] = T[mesh.face(f)[a]];
+    boundaries[mesh.face_boundary[f]].heat_rate += face_heat_in(face_geometry(mesh, f), bc, t_local);
+  }
+  bool any_fixed = false;
+  for (const auto& bc : problem.boundaries) any_fixed |= bc.is_fixed();
+  if (any_fixed) add_reaction_heat_rates(mesh, problem, nodal_residual(mesh, problem, T), T, neighbours, boundaries);
+  std::vector<double> rates;
+  for (const auto& b : boundaries) rates.push_back(b.heat_rate);
+  return rates;
+}
+
+double stored_energy(const Mesh& mesh, const ThermalProblem& problem, const std::vector<double>& T) {
+  double sum = 0.0;
+  double t_local[max_tet_nodes];
+  for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
+    const RegionProperties& region = problem.regions[mesh.tet_region[e]];
+    if (!region.capacity) continue;
+    for (int a = 0; a < mesh.nodes_per_tet(); ++a) t_local[a] = T[mesh.tet(e)[a]];
+    sum += tet_enthalpy(tet_geometry(mesh, e), *region.capacity, t_local);
+  }
+  return sum;
+}
+
+double storage_rate(const Mesh& mesh, const ThermalProblem& problem, const std::vector<double>& T) {
+  if (!problem.time_levels) return 0.0;
+  double sum = 0.0;
+  double t_local[max_tet_nodes], R[max_tet_nodes];
+  for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
+    for (int a = 0; a < mesh.nodes_per_tet(); ++a) {
+      t_local[a] = T[mesh.tet(e)[a]];
+      R[a] = 0.0;
+    }
+    add_element_capacity(mesh, problem, e, tet_geometry(mesh, e), t_local, R, nullptr);
+    for (int a = 0; a < mesh.nodes_per_tet(); ++a) sum += R[a];
+  }
+  return sum;
+}
+
+std::vector<double> region_volumes(const Mesh& mesh) {
+  std::vector<double> volumes(mesh.regions.size(), 0.0);
+  for (std::size_t e = 0; e < mesh.n_tets(); ++e) volumes[mesh.tet_region[e]] += tet_volume(tet_geometry(mesh, e));
+  return volumes;
+}
+
 Results post_process(const Mesh& mesh, const ThermalProblem& problem, const std::vector<double>& T) {
   Results out;
   recover_fluxes(mesh, problem, T, out);
@@ -367,19 +420,13 @@ Results post_process(const Mesh& mesh, const ThermalProblem& problem, const std:
       continue;
     }
     if (neighbours[f][0] < 0 || neighbours[f][1] < 0) has_exterior_face[b] = 1;
-    if (!bc.is_fixed() && !bc.is_insulated()) {
-      double t_local[max_face_nodes];
-      for (int a = 0; a < mesh.nodes_per_face(); ++a) t_local[a] = T[mesh.face(f)[a]];
-      br.heat_rate += face_heat_in(g, bc, t_local);
-    }
   }
   for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) {
     out.boundaries[b].internal = !has_exterior_face[b] && out.boundaries[b].area > 0;
     if (out.boundaries[b].area > 0) out.boundaries[b].temperature.mean = bt_integral[b] / out.boundaries[b].area;
   }
-  bool any_fixed = false;
-  for (const auto& bc : problem.boundaries) any_fixed |= bc.is_fixed();
-  if (any_fixed) add_reaction_heat_rates(mesh, problem, nodal_residual(mesh, problem, T), T, neighbours, out.boundaries);
+  const std::vector<double> rates = surface_heat_rates(mesh, problem, T, neighbours);
+  for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) out.boundaries[b].heat_rate += rates[b];
   for (std::size_t b = 0; b < mesh.boundaries.size(); ++b)
     if (out.boundaries[b].internal && !problem.boundaries[b].is_fixed() && !is_contact[b])
       out.boundaries[b].heat_rate = internal_heat_rate(mesh, problem, T, static_cast<std::int32_t>(b), neighbours);
@@ -397,6 +444,7 @@ Results post_process(const Mesh& mesh, const ThermalProblem& problem, const std:
       eb.boundary_out -= b.heat_rate;
   }
   for (const auto& r : out.regions) eb.sources += r.heat_generated;
+  if (problem.time_levels) eb.stored = storage_rate(mesh, problem, T);
   const double scale = std::max({eb.boundary_in + std::abs(eb.sources), eb.boundary_out, 1e-300});
   eb.relative_imbalance = (eb.boundary_in + eb.sources - eb.boundary_out - eb.stored) / scale;
   return out;

@@ -26,6 +26,22 @@ std::vector<double> nodal_residual(const Mesh& mesh, const ThermalProblem& probl
                                    const std::vector<char>* element_mask = nullptr,
                                    const std::vector<char>* face_mask = nullptr);
 
+// Heat entering the body through each boundary, W (post_process's heat_rate for outer
+// surfaces; 0 for internal and contact surfaces, which pass heat within the body).
+std::vector<double> surface_heat_rates(const Mesh& mesh, const ThermalProblem& problem, const std::vector<double>& T,
+                                       const std::vector<std::array<std::int32_t, 2>>& neighbours);
+
+// Heat stored in the body, J: int H(T) dV over the regions with a heat capacity
+// (relative to HeatCapacity::reference_temperature; differences are what matter).
+double stored_energy(const Mesh& mesh, const ThermalProblem& problem, const std::vector<double>& T);
+
+// The rate of heat storage of the current time step, W: the sum of the capacity terms
+// (problem.time_levels); 0 for a steady problem.
+double storage_rate(const Mesh& mesh, const ThermalProblem& problem, const std::vector<double>& T);
+
+// Volume of each region, m3.
+std::vector<double> region_volumes(const Mesh& mesh);
+
 // For each face, the elements on either side: {behind, in front} of its normal;
 // -1 where there is none (exterior faces have one).
 std::vector<std::array<std::int32_t, 2>> face_neighbours(const Mesh& mesh);

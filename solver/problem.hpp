@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "solver/heat_capacity.hpp"
 #include "solver/material.hpp"
 
 namespace hearth {
@@ -40,6 +41,17 @@ struct RegionProperties {
   std::string material;        // for messages and the summary
   Conductivity conductivity;   // W/(m K)
   double heat_source = 0.0;    // volumetric source, W/m3
+  std::optional<HeatCapacity> capacity;  // density and specific heat (transient only)
+};
+
+// The capacity term of one implicit time step, set by the transient integrator:
+//   C_a = int N_a [c0 H(T) + c1 H(T_1) + c2 H(T_2)] dV,
+// H the volumetric enthalpy, T_1 and T_2 the nodal temperatures (K) of the two previous
+// time levels; c0 + c1 + c2 = 0 (backward Euler: c0 = -c1 = 1/dt, c2 = 0).
+struct TimeLevels {
+  std::array<double, 3> c{};  // 1/s
+  const std::vector<double>* previous = nullptr;
+  const std::vector<double>* before_previous = nullptr;  // may be null when c2 = 0
 };
 
 struct ThermalProblem {
@@ -49,10 +61,14 @@ struct ThermalProblem {
   // integrated with a rule of source_field_degree (manufactured-solution checks).
   std::function<double(const std::array<double, 3>&)> source_field;
   int source_field_degree = 6;
+  // Set for the steps of a transient run: the heat stored enters the residual.
+  std::optional<TimeLevels> time_levels;
 
   bool is_nonlinear() const {
     for (const auto& r : regions)
-      if (r.conductivity.depends_on_temperature()) return true;
+      if (r.conductivity.depends_on_temperature() ||
+          (time_levels && r.capacity && r.capacity->depends_on_temperature()))
+        return true;
     for (const auto& b : boundaries)
       if (b.is_nonlinear()) return true;
     return false;
