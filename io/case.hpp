@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "solver/material.hpp"
+#include "solver/time_table.hpp"
 
 namespace hearth {
 
@@ -41,8 +42,8 @@ struct MaterialSpec {
   // tables: the reader converts table temperatures to kelvin).
   Conductivity conductivity;
   std::string library;                           // library entry it came from, if any
-  std::optional<double> density;                 // kg/m3
-  std::optional<double> specific_heat;           // J/(kg K)
+  std::optional<PiecewiseLinear> density;        // kg/m3: a number or a table in temperature (K)
+  std::optional<PiecewiseLinear> specific_heat;  // J/(kg K): likewise
   std::optional<double> max_service_temperature; // K
   Place place;
 };
@@ -90,16 +91,42 @@ struct SolverSpec {
   int nonlinear_max_iterations = 30;
 };
 
-// Transient settings. Read and checked, but analysis.type transient is not supported by
-// this build yet, so nothing uses them so far.
+// A boundary value or heat source that follows a table in time ({vs_time: ...}). The
+// BoundarySpec or heat_sources entry holds its value at t = 0.
+struct TimeVaryingValue {
+  enum class Target { temperature, heat_flux, convection_coefficient, convection_ambient, radiation_surroundings,
+                      heat_source };
+  Target target = Target::temperature;
+  std::string name;  // the boundary or region
+  TimeTable table;   // s -> SI value (temperatures in K)
+  Place place;
+};
+
+// When a temperature first crosses a level: at a probe, a region's maximum or a
+// surface's mean (transient).
+struct ThresholdSpec {
+  enum class Kind { probe, region_max, surface_mean };
+  std::string name;
+  Kind kind = Kind::probe;
+  std::string target;        // the probe, region or surface
+  double temperature = 0.0;  // K
+  Place place;
+};
+
+// Transient settings.
 struct TransientSpec {
   double duration = 0.0;                      // s, > 0
   double time_step = 0.0;                     // s, initial (or fixed) step, > 0
   std::string method = "bdf2";                // "bdf2" | "backward_euler"
   bool adaptive = true;
   double step_tolerance = 0.1;                // K per step (a difference: no offset)
-  std::optional<double> initial_temperature;  // K
-  std::vector<double> output_times;           // s
+  // Starting field: a number, a number per region, or an earlier result's field.
+  std::optional<double> initial_temperature;                // K
+  std::map<std::string, double> initial_by_region;           // region -> K
+  std::optional<std::filesystem::path> initial_result;       // result folder (absolute)
+  Place initial_place;
+  std::vector<double> output_times;           // s, increasing, in (0, duration]; the duration is always one
+  bool output_times_given = false;
 };
 
 struct Case {
@@ -128,8 +155,11 @@ struct Case {
   Place regions_place;     // the 'regions' key itself
   Place boundaries_place;  // the 'boundaries' key (line 0 when the file has none)
 
-  std::string analysis_type = "steady";      // "steady" (only; "transient" is refused for now)
+  std::string analysis_type = "steady";      // "steady" | "transient"
+  Place analysis_place;
   TransientSpec transient;
+  std::vector<TimeVaryingValue> time_varying;  // transient only
+  std::vector<ThresholdSpec> thresholds;       // transient only
   SolverSpec solver;
   // safety: {touch_surfaces: [...], touch_limit: 60}; the limit in K (default 60 degC).
   std::vector<std::string> touch_surfaces;

@@ -746,6 +746,43 @@ PiecewiseLinear read_film_coefficient(const Reader& reader, const Entry& coeffic
                                 reader.units, {"T_surface", "h", "W/(m2 K)"});
 }
 
+// A number or {vs_time: [[t, value], ...]}: returns the value at t = 0 and files a table
+// under c.time_varying for `target` and `name`. `temperature`: the value is a
+// temperature in the case's unit; `positive`: it must be > 0.
+double read_value_in_time(const Reader& reader, const Entry& entry, const std::string& key, Case& c,
+                          TimeVaryingValue::Target target, const std::string& name, bool temperature,
+                          const std::string& unit, bool positive) {
+  const Place where = reader.place(entry.key, key);
+  if (!entry.value.IsMap()) return temperature ? to_kelvin(reader, entry.value, where) : entry.value.as<double>();
+  const std::vector<Entry> items = entries(reader, entry.value, where);
+  only_keys(reader, items, {"vs_time"}, key, form_syntax("vs_time"));
+  const Place table_place = reader.place(items.front().key, key + ".vs_time");
+  const std::string value_name = key.substr(key.rfind('.') + 1);
+  const Units& units = reader.units;
+  auto convert = [&](double written, double& si) -> std::string {
+    si = temperature ? units.to_kelvin(written) : written;
+    if (temperature && si < 0.0)
+      return number_text(written) + " " + units.temperature + " is below absolute zero";
+    if (positive && !(si > 0.0)) return value_name + " = " + number_text(written) + " is not allowed; must be > 0 (" + unit + ")";
+    return "";
+  };
+  TimeTable table = read_time_table(items.front().value, table_place, value_name,
+                                    temperature ? units.temperature : unit, convert);
+  const double at_start = table.value(0.0);
+  c.time_varying.push_back({target, name, std::move(table), table_place});
+  return at_start;
+}
+
+// Density or specific heat: a number > 0 or {vs_temperature: [[T, value], ...]}.
+PiecewiseLinear read_capacity_property(const Reader& reader, const Entry& entry, const std::string& key,
+                                       const TableColumns& columns) {
+  if (!entry.value.IsMap()) return PiecewiseLinear(entry.value.as<double>());
+  const std::vector<Entry> items = entries(reader, entry.value, reader.place(entry.key, key));
+  only_keys(reader, items, {"vs_temperature"}, key, form_syntax("vs_temperature"));
+  return read_temperature_table(items.front().value, reader.place(items.front().key, key + ".vs_temperature"),
+                                reader.units, columns);
+}
+
 void read_materials_and_regions(const Reader& reader, const YAML::Node& root, Case& c) {
   for (const Entry& entry : entries(reader, child(root, "materials"), Place{})) {
     const std::string key = "materials." + entry.name;
@@ -766,8 +803,8 @@ void read_materials_and_regions(const Reader& reader, const YAML::Node& root, Ca
       }
       material.library = found->name;
       material.conductivity = found->conductivity;
-      material.density = found->density;
-      material.specific_heat = found->specific_heat;
+      if (found->density) material.density = PiecewiseLinear(*found->density);
+      if (found->specific_heat) material.specific_heat = PiecewiseLinear(*found->specific_heat);
       material.max_service_temperature = found->max_service_temperature;
     }
     if (const std::optional<Entry> conductivity = find_entry(entry.value, "conductivity")) {
@@ -779,8 +816,11 @@ void read_materials_and_regions(const Reader& reader, const YAML::Node& root, Ca
                                reader.expected(*find_key_spec("materials.*.conductivity")) +
                                ", or library: NAME, an entry of the material library ('hearth materials' lists them)");
     }
-    if (const auto density = find_entry(entry.value, "density")) material.density = density->value.as<double>();
-    if (const auto heat = find_entry(entry.value, "specific_heat")) material.specific_heat = heat->value.as<double>();
+    if (const auto density = find_entry(entry.value, "density"))
+      material.density = read_capacity_property(reader, *density, key + ".density", {"T", "density", "kg/m3"});
+    if (const auto heat = find_entry(entry.value, "specific_heat"))
+      material.specific_heat =
+          read_capacity_property(reader, *heat, key + ".specific_heat", {"T", "specific_heat", "J/(kg K)"});
     if (const auto limit = find_entry(entry.value, "max_service_temperature"))
       material.max_service_temperature =
           to_kelvin(reader, limit->value, reader.place(limit->key, key + ".max_service_temperature"));
@@ -810,7 +850,9 @@ void read_materials_and_regions(const Reader& reader, const YAML::Node& root, Ca
       reader.fail(where, "'" + entry.name + "' is not a region; a heat source names a volume listed under regions (" +
                              join(regions) + ")" + (hint.empty() ? "" : "; " + hint));
     }
-    c.heat_sources[entry.name] = entry.value.as<double>();
+    c.heat_sources[entry.name] = read_value_in_time(reader, entry, "heat_sources." + entry.name, c,
+                                                    TimeVaryingValue::Target::heat_source, entry.name, false,
+                                                    "W/m3", false);
     c.heat_source_places[entry.name] = where;
   }
 }
@@ -823,23 +865,34 @@ void read_boundaries(const Reader& reader, const YAML::Node& root, Case& c) {
     BoundarySpec boundary;
     boundary.name = entry.name;
     boundary.place = reader.place(entry.key, key);
+    using Target = TimeVaryingValue::Target;
+    const std::string& name = entry.name;
     if (const auto temperature = find_entry(entry.value, "temperature"))
-      boundary.temperature = to_kelvin(reader, temperature->value, reader.place(temperature->key, key + ".temperature"));
-    if (const auto flux = find_entry(entry.value, "heat_flux")) boundary.heat_flux = flux->value.as<double>();
+      boundary.temperature =
+          read_value_in_time(reader, *temperature, key + ".temperature", c, Target::temperature, name, true, "", false);
+    if (const auto flux = find_entry(entry.value, "heat_flux"))
+      boundary.heat_flux =
+          read_value_in_time(reader, *flux, key + ".heat_flux", c, Target::heat_flux, name, false, "W/m2", false);
     if (const auto convection = find_entry(entry.value, "convection")) {
       const Entry ambient = *find_entry(convection->value, "ambient");
+      const Entry coefficient = *find_entry(convection->value, "coefficient");
+      const std::string coefficient_key = key + ".convection.coefficient";
       ConvectionSpec spec;
-      spec.coefficient =
-          read_film_coefficient(reader, *find_entry(convection->value, "coefficient"), key + ".convection.coefficient");
-      spec.ambient = to_kelvin(reader, ambient.value, reader.place(ambient.key, key + ".convection.ambient"));
+      if (coefficient.value.IsMap() && find_entry(coefficient.value, "vs_time"))
+        spec.coefficient = read_value_in_time(reader, coefficient, coefficient_key, c, Target::convection_coefficient,
+                                              name, false, "W/(m2 K)", true);
+      else
+        spec.coefficient = read_film_coefficient(reader, coefficient, coefficient_key);
+      spec.ambient = read_value_in_time(reader, ambient, key + ".convection.ambient", c, Target::convection_ambient,
+                                        name, true, "", false);
       boundary.convection = spec;
     }
     if (const auto radiation = find_entry(entry.value, "radiation")) {
       const Entry surroundings = *find_entry(radiation->value, "surroundings");
       Radiation spec;
       spec.emissivity = child(radiation->value, "emissivity").as<double>();
-      spec.surroundings =
-          to_kelvin(reader, surroundings.value, reader.place(surroundings.key, key + ".radiation.surroundings"));
+      spec.surroundings = read_value_in_time(reader, surroundings, key + ".radiation.surroundings", c,
+                                             Target::radiation_surroundings, name, true, "", false);
       boundary.radiation = spec;
     }
     if (boundary.temperature && (boundary.heat_flux || boundary.convection || boundary.radiation)) {
@@ -857,8 +910,99 @@ void read_boundaries(const Reader& reader, const YAML::Node& root, Case& c) {
   }
 }
 
+// analysis.initial_temperature: a number, {regions: {NAME: number}} or {result: FOLDER}.
+void read_initial_temperature(const Reader& reader, const Entry& initial, Case& c) {
+  TransientSpec& transient = c.transient;
+  const std::string key = "analysis.initial_temperature";
+  transient.initial_place = reader.place(initial.key, key);
+  if (!initial.value.IsMap()) {
+    transient.initial_temperature = to_kelvin(reader, initial.value, transient.initial_place);
+    return;
+  }
+  const std::vector<Entry> items = entries(reader, initial.value, transient.initial_place);
+  only_keys(reader, items, {"regions", "result"}, key, form_syntax("regions") + " or " + form_syntax("result"));
+  if (items.size() != 1)
+    reader.fail(transient.initial_place, "give either regions or result, not both");
+  const Entry& form = items.front();
+  const Place where = reader.place(form.key, key + "." + form.name);
+  if (form.name == "result") {
+    if (!form.value.IsScalar() || form.value.Scalar().empty())
+      reader.fail(where, "expected the folder of an earlier hearth result, found " + yaml_text(form.value));
+    transient.initial_result = resolve(c.directory, form.value.Scalar());
+    return;
+  }
+  if (!form.value.IsMap())
+    reader.fail(where, "expected region: temperature entries, e.g. {regions: {lining: 20}}, found " +
+                           yaml_text(form.value));
+  for (const Entry& region : entries(reader, form.value, where)) {
+    const Place at = reader.place(region.key, key + ".regions." + region.name);
+    if (!c.regions.count(region.name)) {
+      std::vector<std::string> regions;
+      for (const auto& item : c.regions) regions.push_back(item.first);
+      const std::string hint = suggestion(region.name, regions);
+      reader.fail(at, "'" + region.name + "' is not a region; regions: " + join(regions) +
+                          (hint.empty() ? "" : "; " + hint));
+    }
+    if (!yaml_number(region.value))
+      reader.fail(at, yaml_text(region.value) + " is not a number; give the starting temperature in " +
+                          reader.units.temperature);
+    transient.initial_by_region[region.name] = to_kelvin(reader, region.value, at);
+  }
+  std::vector<std::string> missing;
+  for (const auto& item : c.regions)
+    if (!transient.initial_by_region.count(item.first)) missing.push_back(item.first);
+  if (!missing.empty())
+    reader.fail(where, "no starting temperature for " + join(missing) + "; give every region one");
+}
+
+// The transient keys are checked together once the analysis type is known.
+void check_transient(const Reader& reader, const YAML::Node& analysis, Case& c) {
+  TransientSpec& transient = c.transient;
+  auto missing = [&](const std::string& name, const std::string& what) {
+    Place at = c.analysis_place;
+    at.key = "analysis." + name;
+    reader.fail(at, "required for a transient analysis; give " + what);
+  };
+  if (!find_entry(analysis, "duration")) missing("duration", "the time to simulate in s, e.g. duration: 7200");
+  if (!find_entry(analysis, "time_step")) missing("time_step", "the first time step in s, e.g. time_step: 10");
+  if (!find_entry(analysis, "initial_temperature"))
+    missing("initial_temperature", "a number, {regions: {NAME: number}} or {result: FOLDER}");
+  if (transient.time_step > transient.duration) {
+    const auto step = find_entry(analysis, "time_step");
+    reader.fail(reader.place(step->key, "analysis.time_step"),
+                number_text(transient.time_step) + " s is longer than the duration " +
+                    number_text(transient.duration) + " s; give a shorter first step");
+  }
+  if (const auto times = find_entry(analysis, "output_times")) {
+    const Place where = reader.place(times->key, "analysis.output_times");
+    for (std::size_t i = 0; i < transient.output_times.size(); ++i) {
+      const double t = transient.output_times[i];
+      if (!(t > 0.0) || t > transient.duration)
+        reader.fail(where, number_text(t) + " s is outside the run (0, " + number_text(transient.duration) +
+                               "] s; output times lie after the start and no later than analysis.duration");
+      if (i > 0 && !(t > transient.output_times[i - 1]))
+        reader.fail(where, "output times must increase; " + number_text(t) + " s follows " +
+                               number_text(transient.output_times[i - 1]) + " s");
+    }
+  }
+  if (transient.output_times.empty())  // ten even intervals
+    for (int k = 1; k <= 10; ++k) transient.output_times.push_back(transient.duration * k / 10.0);
+  if (transient.output_times.back() < transient.duration) transient.output_times.push_back(transient.duration);
+  for (const auto& [region, material_name] : c.regions) {
+    const MaterialSpec& m = c.materials.at(material_name);
+    if (m.density && m.specific_heat) continue;
+    Place at = m.place;
+    at.key = m.place.key + (m.density ? ".specific_heat" : ".density");
+    reader.fail(at, "a transient analysis needs the density and specific heat of every material used (region '" +
+                        region + "'); give " + (m.density ? "specific_heat (J/(kg K))" : "density (kg/m3)") +
+                        " as a number or {vs_temperature: [[T, value], ...]}");
+  }
+}
+
 void read_analysis_and_solver(const Reader& reader, const YAML::Node& root, Case& c) {
   const YAML::Node analysis = child(root, "analysis");
+  c.analysis_place = Place{reader.file, 0, "analysis", ""};
+  if (const auto section = find_entry(root, "analysis")) c.analysis_place = reader.place(section->key, "analysis");
   c.analysis_type = value_or_default(analysis, "type", "analysis.type").Scalar();
   TransientSpec& transient = c.transient;
   if (const auto duration = find_entry(analysis, "duration")) transient.duration = duration->value.as<double>();
@@ -867,11 +1011,17 @@ void read_analysis_and_solver(const Reader& reader, const YAML::Node& root, Case
   transient.method = value_or_default(stepping, "method", "analysis.time_stepping.method").Scalar();
   transient.adaptive = value_or_default(stepping, "adaptive", "analysis.time_stepping.adaptive").as<bool>();
   transient.step_tolerance = value_or_default(stepping, "tolerance", "analysis.time_stepping.tolerance").as<double>();
-  if (const auto initial = find_entry(analysis, "initial_temperature"))
-    transient.initial_temperature =
-        to_kelvin(reader, initial->value, reader.place(initial->key, "analysis.initial_temperature"));
-  if (const auto times = find_entry(analysis, "output_times"))
+  if (const auto initial = find_entry(analysis, "initial_temperature")) read_initial_temperature(reader, *initial, c);
+  if (const auto times = find_entry(analysis, "output_times")) {
+    transient.output_times_given = true;
     for (const auto& time : times->value) transient.output_times.push_back(time.as<double>());
+  }
+  if (c.analysis_type == "transient") {
+    check_transient(reader, analysis, c);
+  } else if (!c.time_varying.empty()) {
+    reader.fail(c.time_varying.front().place, "a table in time needs analysis.type: transient; give a number for a "
+                                              "steady analysis (or set analysis.type: transient)");
+  }
 
   const YAML::Node solver = child(root, "solver");
   c.solver.linear = value_or_default(solver, "linear", "solver.linear").Scalar();
@@ -902,6 +1052,46 @@ void read_safety(const Reader& reader, const YAML::Node& root, Case& c) {
   }
   if (const std::optional<Entry> limit = find_entry(safety->value, "touch_limit"))
     c.touch_limit = to_kelvin(reader, limit->value, reader.place(limit->key, "safety.touch_limit"));
+}
+
+void read_thresholds(const Reader& reader, const YAML::Node& root, Case& c) {
+  for (const Entry& entry : entries(reader, child(root, "thresholds"), Place{})) {
+    const std::string key = "thresholds." + entry.name;
+    ThresholdSpec spec;
+    spec.name = entry.name;
+    spec.place = reader.place(entry.key, key);
+    if (c.analysis_type != "transient")
+      reader.fail(spec.place, "thresholds are crossing times of a transient analysis; set analysis.type: transient "
+                              "or remove the thresholds section");
+    int given = 0;
+    for (const auto& [form, kind] : {std::pair{"probe", ThresholdSpec::Kind::probe},
+                                     std::pair{"region_max", ThresholdSpec::Kind::region_max},
+                                     std::pair{"surface_mean", ThresholdSpec::Kind::surface_mean}})
+      if (const auto item = find_entry(entry.value, form)) {
+        ++given;
+        spec.kind = kind;
+        spec.target = item->value.Scalar();
+      }
+    if (given != 1)
+      reader.fail(spec.place, "give exactly one of probe, region_max and surface_mean (found " +
+                                  std::to_string(given) + ")");
+    if (spec.kind == ThresholdSpec::Kind::probe) {
+      bool found = false;
+      std::vector<std::string> names;
+      for (const auto& p : c.probes) {
+        found |= p.name == spec.target;
+        names.push_back(p.name);
+      }
+      if (!found)
+        reader.fail(spec.place, "'" + spec.target + "' is not a probe; probes: " +
+                                    (names.empty() ? std::string("(none)") : join(names)));
+    }
+    if (spec.kind == ThresholdSpec::Kind::region_max && !c.regions.count(spec.target))
+      reader.fail(spec.place, "'" + spec.target + "' is not a region listed under regions");
+    const Entry level = *find_entry(entry.value, "temperature");
+    spec.temperature = to_kelvin(reader, level.value, reader.place(level.key, key + ".temperature"));
+    c.thresholds.push_back(spec);
+  }
 }
 
 void read_interfaces(const Reader& reader, const YAML::Node& root, Case& c) {
@@ -963,6 +1153,7 @@ Case read_case_file(const fs::path& path, const std::vector<std::string>& overri
   read_safety(reader, root, c);
   read_interfaces(reader, root, c);
   read_probes_lines_output(reader, root, c);
+  read_thresholds(reader, root, c);
   return c;
 }
 

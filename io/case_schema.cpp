@@ -46,26 +46,26 @@ const std::vector<KeySpec> schema_table = {
     {"materials.*", K::section, false, "", "", any_value, "", "one material", "", ""},
     {"materials.*.library", K::text, false, "", "", any_value, "", "name of an entry of the shipped material library ('hearth materials' lists them); keys given beside it override single properties", "", ""},
     {"materials.*.conductivity", K::number, false, "", "", positive, "W/(m K)", "thermal conductivity (required unless library is given): isotropic constant, table in temperature, orthotropic in principal axes or a full symmetric positive-definite tensor", "", "vs_temperature|principal|tensor"},
-    {"materials.*.density", K::number, false, "", "", positive, "kg/m3", "density (transient only)", "", ""},
-    {"materials.*.specific_heat", K::number, false, "", "", positive, "J/(kg K)", "specific heat capacity (transient only)", "", ""},
+    {"materials.*.density", K::number, false, "", "", positive, "kg/m3", "density (transient only): a constant or a table in temperature", "", "vs_temperature"},
+    {"materials.*.specific_heat", K::number, false, "", "", positive, "J/(kg K)", "specific heat capacity (transient only): a constant or a table in temperature", "", "vs_temperature"},
     {"materials.*.max_service_temperature", K::number, false, "", "", any_value, "temperature", "exceeding it anywhere in the material gives a warning", "", ""},
 
     {"regions", K::names, true, "", "", any_value, "", "physical volume name -> material name; every volume must be assigned", "", ""},
     {"regions.*", K::text, false, "", "", any_value, "", "name of a material defined under materials", "", ""},
 
     {"heat_sources", K::names, false, "", "", any_value, "", "physical volume name -> volumetric heat source", "", ""},
-    {"heat_sources.*", K::number, false, "", "", any_value, "W/m3", "heat generated per unit volume", "vs_time", ""},
+    {"heat_sources.*", K::number, false, "", "", any_value, "W/m3", "heat generated per unit volume: a constant or (transient) a table in time", "", "vs_time"},
 
     {"boundaries", K::names, false, "", "", any_value, "", "physical surface name -> condition; unlisted surfaces are insulated", "", ""},
     {"boundaries.*", K::section, false, "", "", any_value, "", "one surface's condition: temperature, or any of heat_flux, convection and radiation", "", ""},
-    {"boundaries.*.temperature", K::number, false, "", "", any_value, "temperature", "fixed temperature; excludes the other conditions", "vs_time", ""},
-    {"boundaries.*.heat_flux", K::number, false, "", "", any_value, "W/m2", "heat flux into the body; 0 is insulated", "vs_time", ""},
+    {"boundaries.*.temperature", K::number, false, "", "", any_value, "temperature", "fixed temperature; excludes the other conditions", "", "vs_time"},
+    {"boundaries.*.heat_flux", K::number, false, "", "", any_value, "W/m2", "heat flux into the body; 0 is insulated", "", "vs_time"},
     {"boundaries.*.convection", K::section, false, "", "", any_value, "", "heat exchange with a fluid: q = h (T_ambient - T)", "", ""},
-    {"boundaries.*.convection.coefficient", K::number, true, "", "", positive, "W/(m2 K)", "film coefficient h: a constant or a table in the surface temperature", "vs_time", "vs_temperature"},
-    {"boundaries.*.convection.ambient", K::number, true, "", "", any_value, "temperature", "fluid temperature away from the surface", "vs_time", ""},
+    {"boundaries.*.convection.coefficient", K::number, true, "", "", positive, "W/(m2 K)", "film coefficient h: a constant, a table in the surface temperature, or (transient) a table in time", "", "vs_temperature|vs_time"},
+    {"boundaries.*.convection.ambient", K::number, true, "", "", any_value, "temperature", "fluid temperature away from the surface", "", "vs_time"},
     {"boundaries.*.radiation", K::section, false, "", "", any_value, "", "grey surface radiating to large surroundings: q = emissivity sigma (T_surroundings^4 - T^4), absolute temperatures", "", ""},
     {"boundaries.*.radiation.emissivity", K::number, true, "", "", above_zero_to_one, "", "emissivity of the surface (grey)", "", ""},
-    {"boundaries.*.radiation.surroundings", K::number, true, "", "", any_value, "temperature", "temperature of the surroundings", "vs_time", ""},
+    {"boundaries.*.radiation.surroundings", K::number, true, "", "", any_value, "temperature", "temperature of the surroundings", "", "vs_time"},
 
     {"interfaces", K::names, false, "", "", any_value, "", "thermal contact conductance across named internal surfaces (the temperature jumps across them)", "", ""},
     {"interfaces.*", K::section, false, "", "", any_value, "", "one internal surface between two regions", "", ""},
@@ -76,15 +76,22 @@ const std::vector<KeySpec> schema_table = {
     {"safety.touch_limit", K::number, false, "", "", any_value, "temperature", "highest temperature allowed on the touch surfaces; default 60 degC (common practice, no source: see the contact-burn standards and local regulations)", "", ""},
 
     {"analysis", K::section, false, "", "", any_value, "", "what to solve", "", ""},
-    {"analysis.type", K::choice, false, "steady", "steady|transient", any_value, "", "steady state or time history", "transient", ""},
-    {"analysis.duration", K::number, false, "", "", positive, "s", "transient: time simulated", "", ""},
-    {"analysis.time_step", K::number, false, "", "", positive, "s", "transient: initial (or fixed) time step", "", ""},
+    {"analysis.type", K::choice, false, "steady", "steady|transient", any_value, "", "steady state or time history", "", ""},
+    {"analysis.duration", K::number, false, "", "", positive, "s", "transient (required): time simulated", "", ""},
+    {"analysis.time_step", K::number, false, "", "", positive, "s", "transient (required): first step, or every step when adaptive is false", "", ""},
     {"analysis.time_stepping", K::section, false, "", "", any_value, "", "transient: time integration", "", ""},
     {"analysis.time_stepping.method", K::choice, false, "bdf2", "bdf2|backward_euler", any_value, "", "implicit time-integration method", "", ""},
     {"analysis.time_stepping.adaptive", K::boolean, false, "true", "", any_value, "", "adapt the step to the local error estimate", "", ""},
     {"analysis.time_stepping.tolerance", K::number, false, "0.1", "", positive, "K", "allowed local temperature error per step", "", ""},
-    {"analysis.initial_temperature", K::number, false, "", "", any_value, "temperature", "transient: uniform starting temperature", "regions|result", ""},
-    {"analysis.output_times", K::number_list, false, "", "", non_negative, "s", "transient: times at which fields are written", "", ""},
+    {"analysis.initial_temperature", K::number, false, "", "", any_value, "temperature", "transient (required): starting temperature: a number, {regions: {NAME: number, ...}} for every region, or {result: FOLDER} for the field of an earlier result (its mesh is reused)", "", "regions|result"},
+    {"analysis.output_times", K::number_list, false, "", "", non_negative, "s", "transient: times at which fields are written (the end time is always written; default: ten even intervals)", "", ""},
+
+    {"thresholds", K::names, false, "", "", any_value, "", "transient: name -> a temperature whose first crossing time is reported", "", ""},
+    {"thresholds.*", K::section, false, "", "", any_value, "", "one threshold: exactly one of probe, region_max and surface_mean, and the temperature", "", ""},
+    {"thresholds.*.probe", K::text, false, "", "", any_value, "", "a probe's name: its temperature is watched", "", ""},
+    {"thresholds.*.region_max", K::text, false, "", "", any_value, "", "a region's name: its hottest point is watched", "", ""},
+    {"thresholds.*.surface_mean", K::text, false, "", "", any_value, "", "a surface's name: its area-mean temperature is watched", "", ""},
+    {"thresholds.*.temperature", K::number, true, "", "", any_value, "temperature", "the level; crossed in either direction from the starting value", "", ""},
 
     {"solver", K::section, false, "", "", any_value, "", "linear and nonlinear solution settings", "", ""},
     {"solver.linear", K::choice, false, "auto", "auto|direct|iterative", any_value, "", "linear solver: sparse Cholesky, multigrid-preconditioned CG, or chosen by size", "", ""},
@@ -207,6 +214,8 @@ std::string form_syntax(const std::string& form) {
   if (form == "principal") return "{principal: [k1, k2, k3], axis_1: [x, y, z], axis_2: [x, y, z]}";
   if (form == "tensor") return "{tensor: [[k11, k12, k13], [k12, k22, k23], [k13, k23, k33]]}";
   if (form == "vs_time") return "{vs_time: [[t, value], ...]}";
+  if (form == "regions") return "{regions: {NAME: value, ...}}";
+  if (form == "result") return "{result: FOLDER}";
   return "{" + form + ": ...}";
 }
 

@@ -82,6 +82,46 @@ void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units&
   unit_names->InsertNextValue("heat_flux=W/m2");
   grid->GetFieldData()->AddArray(unit_names);
 
+  if (fields.restart_data) {
+    // Boundary triangles (node ids into this file's points) and which named boundary each
+    // lies on: what a restart needs beyond the volume cells.
+    auto faces = Ptr<vtkIdTypeArray>::New();
+    faces->SetName("boundary_faces");
+    faces->SetNumberOfComponents(mesh.nodes_per_face());
+    faces->SetNumberOfTuples(static_cast<vtkIdType>(mesh.n_faces()));
+    for (std::size_t k = 0; k < mesh.face_nodes.size(); ++k) faces->SetValue(static_cast<vtkIdType>(k), mesh.face_nodes[k]);
+    auto index = Ptr<vtkIntArray>::New();
+    index->SetName("boundary_face_index");
+    index->SetNumberOfValues(static_cast<vtkIdType>(mesh.n_faces()));
+    for (std::size_t f = 0; f < mesh.n_faces(); ++f) index->SetValue(static_cast<vtkIdType>(f), mesh.face_boundary[f]);
+    auto boundary_names = Ptr<vtkStringArray>::New();
+    boundary_names->SetName("boundary_names");
+    auto boundary_tags = Ptr<vtkIntArray>::New();
+    boundary_tags->SetName("boundary_tags");
+    for (const auto& b : mesh.boundaries) {
+      boundary_names->InsertNextValue(b.name);
+      boundary_tags->InsertNextValue(b.tag);
+    }
+    if (!mesh.face_twin_nodes.empty()) {  // the other side of faces cut for a thermal contact
+      auto twins = Ptr<vtkIdTypeArray>::New();
+      twins->SetName("boundary_twin_nodes");
+      twins->SetNumberOfComponents(mesh.nodes_per_face());
+      twins->SetNumberOfTuples(static_cast<vtkIdType>(mesh.n_faces()));
+      for (std::size_t k = 0; k < mesh.face_twin_nodes.size(); ++k)
+        twins->SetValue(static_cast<vtkIdType>(k), mesh.face_twin_nodes[k]);
+      grid->GetFieldData()->AddArray(twins);
+    }
+    grid->GetFieldData()->AddArray(faces);
+    grid->GetFieldData()->AddArray(index);
+    grid->GetFieldData()->AddArray(boundary_names);
+    grid->GetFieldData()->AddArray(boundary_tags);
+  }
+  if (fields.time >= 0.0) {  // the time of a transient output, read by viewers as TimeValue
+    auto time = Ptr<vtkDoubleArray>::New();
+    time->SetName("TimeValue");
+    time->InsertNextValue(fields.time);
+    grid->GetFieldData()->AddArray(time);
+  }
   if (fields.temperature) {
     auto t = Ptr<vtkDoubleArray>::New();
     t->SetName("temperature");

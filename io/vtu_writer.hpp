@@ -16,11 +16,16 @@ struct VtuFields {
   const std::vector<double>* nodal_flux = nullptr;   // 3 per node, W/m2
   const std::vector<double>* cell_flux = nullptr;    // 3 per element, W/m2
   bool quality = false;                              // cell field "quality" (mesh.vtu)
+  // Field data that lets a later run start from this result on exactly this mesh
+  // (analysis.initial_temperature: {result: ...}): the boundary triangles and their names.
+  bool restart_data = true;
+  double time = -1.0;                                // s; >= 0: field data TimeValue (transient)
 };
 
 // Writes an unstructured grid of 4-node (VTK_TETRA) or 10-node (VTK_QUADRATIC_TETRA)
 // cells with cell field "region" (the region's tag), field data "region_names" and
-// "region_tags", and the requested fields. Written to a temporary name, then renamed.
+// "region_tags", "units", the boundary triangles ("boundary_faces", "boundary_face_index",
+// "boundary_names", "boundary_tags") and the requested fields. Written to a temporary name, then renamed.
 void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units& units, const VtuFields& fields);
 
 }  // namespace hearth

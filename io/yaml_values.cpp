@@ -76,4 +76,43 @@ PiecewiseLinear read_temperature_table(const YAML::Node& rows, const Place& wher
   return table;
 }
 
+TimeTable read_time_table(const YAML::Node& rows, const Place& where, const std::string& value_name,
+                          const std::string& value_unit,
+                          const std::function<std::string(double written, double& si)>& convert) {
+  const std::string row_form = "[t, " + value_name + "]";
+  const std::string row_units = "(t in s, " + value_name + " in " + value_unit + ")";
+  if (!rows.IsSequence())
+    input_error(where, "expected a table [" + row_form + ", ...] " + row_units + ", found " + yaml_text(rows));
+  if (rows.size() < 2)
+    input_error(where, "has " + std::to_string(rows.size()) + " row" + (rows.size() == 1 ? "" : "s") +
+                           "; a table needs at least 2 rows " + row_form + " " + row_units +
+                           " (for a constant value write the number itself)");
+  TimeTable table;
+  for (std::size_t i = 0; i < rows.size(); ++i) {
+    const YAML::Node row = rows[i];
+    const Place at = place_at(where, row);
+    const std::string name = "row " + std::to_string(i + 1);
+    if (!row.IsSequence() || row.size() != 2)
+      input_error(at, name + ": expected " + row_form + ", two numbers " + row_units + ", found " +
+                          (row.IsSequence() ? std::to_string(row.size()) + " values " + yaml_text(row) : yaml_text(row)));
+    const std::string written = name + " " + yaml_text(row);
+    const std::optional<double> t = yaml_number(row[0]), v = yaml_number(row[1]);
+    if (!t) input_error(at, written + ": t = " + yaml_text(row[0]) + " is not a finite number");
+    if (!v) input_error(at, written + ": " + value_name + " = " + yaml_text(row[1]) + " is not a finite number");
+    if (*t < 0.0) input_error(at, written + ": t = " + row[0].Scalar() + " s is before the start (t = 0)");
+    if (i > 0 && *t < table.t.back())
+      input_error(at, written + ": times must not decrease down the table; " + row[0].Scalar() + " s follows " +
+                          rows[i - 1][0].Scalar() + " s");
+    if (i > 1 && *t == table.t[i - 1] && *t == table.t[i - 2])
+      input_error(at, written + ": the time " + row[0].Scalar() +
+                          " s is given three times; a step needs it twice (the value before and after)");
+    double si = 0.0;
+    const std::string bad = convert(*v, si);
+    if (!bad.empty()) input_error(at, written + ": " + bad);
+    table.t.push_back(*t);
+    table.v.push_back(si);
+  }
+  return table;
+}
+
 }  // namespace hearth

@@ -5,6 +5,7 @@
 
 #include <yaml-cpp/yaml.h>
 
+#include <functional>
 #include <optional>
 #include <string>
 
@@ -38,5 +39,13 @@ struct TableColumns {
 // strictly increasing down the table; values > 0. `where` names the vs_temperature key.
 PiecewiseLinear read_temperature_table(const YAML::Node& rows, const Place& where, const Units& units,
                                        const TableColumns& columns);
+
+// Reads the rows [[t, value], ...] of a {vs_time: ...} table: at least 2 rows of two
+// finite numbers, t in s, >= 0 and not decreasing (a time given twice is a step, three
+// times is an error). `convert` takes a value as written to SI (temperatures to kelvin)
+// and returns the reason when the value is not allowed, else "".
+TimeTable read_time_table(const YAML::Node& rows, const Place& where, const std::string& value_name,
+                          const std::string& value_unit,
+                          const std::function<std::string(double written, double& si)>& convert);
 
 }  // namespace hearth

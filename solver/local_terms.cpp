@@ -24,7 +24,7 @@ int face_degree(const FaceGeometry& g, const BoundaryCondition& bc) {
 // rho c N_a N_b is degree 2p on a straight element; a temperature-dependent rho c and
 // curved 10-node elements take more points.
 int capacity_degree(const TetGeometry& g, bool varies) {
-  if (g.order == 1) return varies ? 3 : 2;
+  if (g.order == 1) return 2;  // a varying rho c is integrated to second order, as the P1 field itself
   return g.affine() ? (varies ? 5 : 4) : 6;
 }
 
@@ -86,8 +86,9 @@ void add_capacity_terms(const TetGeometry& g, const CapacityTerm& term, const do
     return;
   }
   double N[max_tet_nodes], Jac[3][3];
+  const double straight = g.affine() ? straight_jacobian(g) : 0.0;
   for (const auto& q : tet_rule(capacity_degree(g, k.depends_on_temperature()))) {
-    const double w = q.weight * tet_jacobian(g, q.xi, Jac);
+    const double w = q.weight * (g.affine() ? straight : tet_jacobian(g, q.xi, Jac));
     tet_shape_values(g.order, q.xi, N);
     const double t = interpolate(N, T, n);
     double stored = term.c[0] * k.enthalpy(t) + term.c[1] * k.enthalpy(interpolate(N, term.T1, n));
@@ -110,9 +111,10 @@ double tet_enthalpy(const TetGeometry& g, const HeatCapacity& capacity, const do
     return capacity.volumetric(0.0) * straight_jacobian(g) * sum;
   }
   double N[max_tet_nodes], Jac[3][3], sum = 0.0;
+  const double straight = g.affine() ? straight_jacobian(g) : 0.0;
   for (const auto& q : tet_rule(capacity_degree(g, capacity.depends_on_temperature()))) {
     tet_shape_values(g.order, q.xi, N);
-    sum += q.weight * tet_jacobian(g, q.xi, Jac) * capacity.enthalpy(interpolate(N, T, n));
+    sum += q.weight * (g.affine() ? straight : tet_jacobian(g, q.xi, Jac)) * capacity.enthalpy(interpolate(N, T, n));
   }
   return sum;
 }

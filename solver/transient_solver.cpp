@@ -418,8 +418,8 @@ TransientSolution solve_transient(const Mesh& mesh, const TransientProblem& prob
       h = settings.initial_step;
     }
     say(format("t = %.6g s: step %.4g s (order %.0f), ", t, taken, order) +
-        format("error %.3g K, %.0f Newton, %.0f linear iterations", error, outcome.newton_iterations,
-               outcome.linear_iterations));
+        format("error %.3g K, %.0f Newton iterations", error, outcome.newton_iterations) +
+        (outcome.linear_iterations ? format(", %.0f linear iterations", outcome.linear_iterations) : std::string()));
     if (callbacks.stop_requested && callbacks.stop_requested()) {
       solution.interrupted = true;
       break;

@@ -18,6 +18,7 @@ namespace fs = std::filesystem;
 using hearth::Case;
 using hearth::InputError;
 using hearth::read_case_file;
+using hearth::TimeVaryingValue;
 
 namespace {
 
@@ -160,8 +161,8 @@ TEST_F(CaseFileTest, FullCaseConvertsToMetresAndKelvin) {
   EXPECT_FALSE(brick.conductivity.depends_on_temperature());
   EXPECT_DOUBLE_EQ(brick.conductivity.typical(300.0), 1.3);
   EXPECT_TRUE(brick.library.empty());
-  EXPECT_DOUBLE_EQ(*brick.density, 2200.0);
-  EXPECT_DOUBLE_EQ(*brick.specific_heat, 1000.0);
+  EXPECT_DOUBLE_EQ(brick.density->value(300.0), 2200.0);
+  EXPECT_DOUBLE_EQ(brick.specific_heat->value(300.0), 1000.0);
   EXPECT_NEAR(*brick.max_service_temperature, 1673.15, tol);
   EXPECT_EQ(brick.place.line, 12);
   EXPECT_FALSE(c.materials.at("board").density);
@@ -334,20 +335,87 @@ TEST_F(CaseFileTest, SetErrorsNameTheOverride) {
   EXPECT_EQ(error_of(minimal_case, {"mesh.size=-1"}), "--set mesh.size: -1 is not allowed; must be > 0 (m)");
 }
 
-TEST_F(CaseFileTest, UnsupportedFeaturesSaySo) {
-  const std::string vs_time = error_of(replaced(minimal_case, "temperature: 400", "temperature: {vs_time: [[0, 20]]}"));
-  EXPECT_TRUE(has(vs_time, ":11: boundaries.hot_face.temperature: temperature as {vs_time: ...} is not supported by "
-                           "this version of hearth yet"));
+// A transient case: the minimal case with heat capacity and an analysis section.
+const std::string transient_case =
+    replaced(minimal_case, "    conductivity: 45\n", "    conductivity: 45\n    density: 7800\n    specific_heat: 460\n") +
+    "analysis:\n"                           // 18
+    "  type: transient\n"                   // 19
+    "  duration: 600\n"                     // 20
+    "  time_step: 5\n"                      // 21
+    "  initial_temperature: 20\n";          // 22
 
-  const std::string film = error_of(replaced(minimal_case, "coefficient: 10", "coefficient: {vs_time: [[0, 5], [60, 8]]}"));
-  EXPECT_TRUE(has(film, ":14: boundaries.cold_face.convection.coefficient: coefficient as {vs_time: ...} is not "
-                        "supported by this version of hearth yet; give a number > 0 (W/(m2 K)) or {vs_temperature:"));
+TEST_F(CaseFileTest, TimeTablesAndTransientSettings) {
+  const std::string text =
+      replaced(replaced(transient_case, "temperature: 400", "temperature: {vs_time: [[0, 20], [60, 400], [60, 500]]}"),
+               "coefficient: 10", "coefficient: {vs_time: [[0, 5], [600, 8]]}");
+  const Case c = read_case_file(write(text + "  output_times: [60, 300]\n"));
+  EXPECT_EQ(c.analysis_type, "transient");
+  EXPECT_DOUBLE_EQ(c.transient.duration, 600.0);
+  EXPECT_DOUBLE_EQ(*c.transient.initial_temperature, 293.15);
+  // The end time is always an output time.
+  EXPECT_EQ(c.transient.output_times, (std::vector<double>{60, 300, 600}));
+  ASSERT_EQ(c.time_varying.size(), 2u);
+  const TimeVaryingValue& hot = c.time_varying[0];
+  EXPECT_EQ(hot.target, TimeVaryingValue::Target::temperature);
+  EXPECT_EQ(hot.name, "hot_face");
+  EXPECT_NEAR(hot.table.value(30.0), 210.0 + 273.15, 1e-9);  // degC converted to K, linear in time
+  EXPECT_EQ(hot.table.step_times(), (std::vector<double>{60.0}));
+  EXPECT_NEAR(*c.boundaries.at("hot_face").temperature, 293.15, 1e-9);  // the value at t = 0
+  EXPECT_EQ(c.time_varying[1].target, TimeVaryingValue::Target::convection_coefficient);
+  EXPECT_DOUBLE_EQ(c.boundaries.at("cold_face").convection->coefficient.value(0.0), 5.0);
+  // Default output times: ten even intervals.
+  const Case d = read_case_file(write(transient_case));
+  EXPECT_EQ(d.transient.output_times.size(), 10u);
+  EXPECT_DOUBLE_EQ(d.transient.output_times.back(), 600.0);
+}
 
-  const std::string transient = error_of("analysis: {type: transient, duration: 60}\n" + minimal_case);
-  EXPECT_TRUE(has(transient, ":1: analysis.type: 'transient' is not supported by this version of hearth yet; "
-                             "allowed now: steady"));
+TEST_F(CaseFileTest, CapacityTablesAndInitialTemperatureForms) {
+  const std::string tables = replaced(transient_case, "    specific_heat: 460\n",
+                                      "    specific_heat: {vs_temperature: [[20, 450], [600, 700]]}\n");
+  const Case c = read_case_file(write(tables));
+  EXPECT_NEAR(c.materials.at("steel").specific_heat->value(293.15), 450.0, 1e-9);
+  EXPECT_NEAR(c.materials.at("steel").specific_heat->value(873.15), 700.0, 1e-9);
 
-  // Interfaces are read now; a non-positive conductance is refused at its line.
+  const Case by_region = read_case_file(write(replaced(transient_case, "initial_temperature: 20",
+                                                         "initial_temperature: {regions: {shell: 150}}")));
+  EXPECT_NEAR(by_region.transient.initial_by_region.at("shell"), 423.15, 1e-9);
+  const Case from_result = read_case_file(write(replaced(transient_case, "initial_temperature: 20",
+                                                           "initial_temperature: {result: steady_results}")));
+  EXPECT_EQ(from_result.transient.initial_result->filename(), "steady_results");
+  EXPECT_TRUE(from_result.transient.initial_result->is_absolute());
+}
+
+TEST_F(CaseFileTest, TransientInputErrorsNameTheKey) {
+  // A table in time needs a transient analysis.
+  const std::string steady = error_of(replaced(minimal_case, "temperature: 400", "temperature: {vs_time: [[0, 20], [60, 400]]}"));
+  EXPECT_TRUE(has(steady, ":11: boundaries.hot_face.temperature.vs_time: a table in time needs analysis.type: transient"))
+      << steady;
+  // Density is required for a transient run, at the material.
+  const std::string density = error_of(replaced(transient_case, "    density: 7800\n", ""));
+  EXPECT_TRUE(has(density, ":6: materials.steel.density: a transient analysis needs the density")) << density;
+  const std::string initial = error_of(replaced(transient_case, "  initial_temperature: 20\n", ""));
+  EXPECT_TRUE(has(initial, "analysis.initial_temperature: required for a transient analysis")) << initial;
+  const std::string late = error_of(transient_case + "  output_times: [60, 900]\n");
+  EXPECT_TRUE(has(late, ":23: analysis.output_times: 900 s is outside the run (0, 600] s")) << late;
+  const std::string order = error_of(transient_case + "  output_times: [300, 60]\n");
+  EXPECT_TRUE(has(order, "output times must increase")) << order;
+  // Table rows: times must not decrease, a time at most twice, values allowed.
+  const std::string back = error_of(replaced(transient_case, "temperature: 400", "temperature: {vs_time: [[0, 20], [60, 400], [30, 500]]}"));
+  EXPECT_TRUE(has(back, "row 3 [30, 500]: times must not decrease down the table")) << back;
+  const std::string thrice = error_of(replaced(transient_case, "temperature: 400", "temperature: {vs_time: [[0, 20], [60, 400], [60, 500], [60, 600]]}"));
+  EXPECT_TRUE(has(thrice, "is given three times")) << thrice;
+  const std::string cold = error_of(replaced(transient_case, "temperature: 400", "temperature: {vs_time: [[0, 20], [60, -300]]}"));
+  EXPECT_TRUE(has(cold, "below absolute zero")) << cold;
+  const std::string film = error_of(replaced(transient_case, "coefficient: 10", "coefficient: {vs_time: [[0, 5], [60, 0]]}"));
+  EXPECT_TRUE(has(film, "coefficient = 0 is not allowed; must be > 0 (W/(m2 K))")) << film;
+  const std::string region = error_of(replaced(transient_case, "initial_temperature: 20", "initial_temperature: {regions: {shel: 20}}"));
+  EXPECT_TRUE(has(region, "analysis.initial_temperature.regions.shel: 'shel' is not a region")) << region;
+  const std::string threshold = error_of(transient_case + "thresholds:\n  hot: {probe: nowhere, temperature: 300}\n");
+  EXPECT_TRUE(has(threshold, ":24: thresholds.hot: 'nowhere' is not a probe")) << threshold;
+  const std::string both = error_of(transient_case + "thresholds:\n  hot: {region_max: shell, surface_mean: cold_face, temperature: 300}\n");
+  EXPECT_TRUE(has(both, "give exactly one of probe, region_max and surface_mean")) << both;
+
+  // Interfaces are read; a non-positive conductance is refused at its line.
   const std::string interfaces = error_of(minimal_case + "interfaces:\n  shell_contact: {conductance: -5}\n");
   EXPECT_TRUE(has(interfaces, ":17: interfaces.shell_contact.conductance")) << interfaces;
 }
@@ -681,8 +749,8 @@ TEST_F(CaseFileTest, LibraryEntryWithOverrides) {
   // Density kept from the library entry: 7854 kg/m3, plain carbon steel, Incropera &
   // DeWitt Table A.1 (from memory).
   ASSERT_TRUE(steel.density);
-  EXPECT_DOUBLE_EQ(*steel.density, 7854.0);
-  EXPECT_DOUBLE_EQ(*steel.specific_heat, 434.0);  // same source
+  EXPECT_DOUBLE_EQ(steel.density->value(300.0), 7854.0);
+  EXPECT_DOUBLE_EQ(steel.specific_heat->value(300.0), 434.0);  // same source
 
   // Without overrides the table comes from the library, already in kelvin: 60.5 W/(m K)
   // at 300 K and 30.0 at 1000 K (Incropera & DeWitt Table A.1, from memory).
@@ -693,7 +761,7 @@ TEST_F(CaseFileTest, LibraryEntryWithOverrides) {
   EXPECT_DOUBLE_EQ(k.typical(1000.0), 30.0);
 
   const Case density = read_case_file(write(replaced(minimal_case, "conductivity: 45", "library: carbon_steel\n    density: 7800")));
-  EXPECT_DOUBLE_EQ(*density.materials.at("steel").density, 7800.0);
+  EXPECT_DOUBLE_EQ(density.materials.at("steel").density->value(300.0), 7800.0);
   EXPECT_DOUBLE_EQ(density.materials.at("steel").conductivity.typical(300.0), 60.5);  // as above
 
   const Case limit = read_case_file(

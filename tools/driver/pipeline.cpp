@@ -1,6 +1,8 @@
 // Stage functions shared by the run, check and mesh commands.
 #include "tools/driver/pipeline.hpp"
 
+#include <omp.h>
+
 #include <algorithm>
 #include <fstream>
 #include <iterator>
@@ -17,6 +19,10 @@
 #include "mesh/mesh_topology.hpp"
 #include "solver/steady_solver.hpp"
 #include "solver/point_locator.hpp"
+
+#ifndef HEARTH_VERSION
+#define HEARTH_VERSION "unknown"
+#endif
 
 namespace hearth {
 
@@ -64,6 +70,50 @@ std::string input_digest(const Case& c, const CommonOptions& options) {
   char text[17];
   std::snprintf(text, sizeof text, "%016llx", static_cast<unsigned long long>(hash));
   return text;
+}
+
+namespace {
+std::string fnv_hex(const std::string& bytes) {
+  std::uint64_t hash = 1469598103934665603ULL;
+  for (unsigned char b : bytes) hash = (hash ^ b) * 1099511628211ULL;
+  char text[17];
+  std::snprintf(text, sizeof text, "%016llx", static_cast<unsigned long long>(hash));
+  return text;
+}
+double min_quality(const Mesh& mesh) {
+  double q = mesh.tet_quality.empty() ? 0.0 : 1.0;
+  for (double v : mesh.tet_quality) q = std::min(q, v);
+  return q;
+}
+}  // namespace
+
+std::string geometry_digest(const Case& c) {
+  std::ifstream in(c.geometry_file, std::ios::binary);
+  return fnv_hex(std::string((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>()));
+}
+
+nlohmann::json run_provenance(const Case& c, const CommonOptions& options, double solve_seconds, double total_seconds) {
+  return {{"hearth_version", HEARTH_VERSION},
+          {"case_file", std::filesystem::absolute(c.file).string()},
+          {"input_digest", input_digest(c, options)},
+          {"geometry_digest", geometry_digest(c)},
+          {"overrides", options.sets},
+          {"command_line", options.command_line},
+          {"threads", omp_get_max_threads()},
+          {"seconds", {{"solve", solve_seconds}, {"total", total_seconds}}}};
+}
+
+RunRecord start_record(const Case& c, const Mesh& mesh) {
+  RunRecord record;
+  record.title = c.title;
+  record.case_file = c.file.string();
+  record.hearth_version = HEARTH_VERSION;
+  record.nodes = mesh.n_nodes();
+  record.elements = mesh.n_tets();
+  record.order = mesh.order;
+  record.min_quality = min_quality(mesh);
+  record.blas = loaded_blas();
+  return record;
 }
 
 Case load_case(const CommonOptions& options, const Progress& progress) {

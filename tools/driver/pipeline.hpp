@@ -7,6 +7,7 @@
 #include "io/case.hpp"
 #include "io/csv_writer.hpp"
 #include "io/run_record.hpp"
+#include "io/summary_json.hpp"
 #include "mesh/mesh.hpp"
 #include "solver/linear_solver.hpp"
 #include "solver/point_locator.hpp"
@@ -30,6 +31,16 @@ struct CommonOptions {
 // A digest of the run's inputs (case file, geometry file, overrides, threads excluded):
 // FNV-1a 64-bit of their bytes, as 16 hex digits. Equal digests: same inputs.
 std::string input_digest(const Case& c, const CommonOptions& options);
+
+// FNV-1a 64-bit of the geometry file's bytes: a restart checks that its mesh still
+// belongs to the case's geometry.
+std::string geometry_digest(const Case& c);
+
+// run.json: how the result was made, so that a colleague can make it again.
+nlohmann::json run_provenance(const Case& c, const CommonOptions& options, double solve_seconds, double total_seconds);
+
+// A record with the case's title and the mesh figures filled in.
+RunRecord start_record(const Case& c, const Mesh& mesh);
 
 Case load_case(const CommonOptions& options, const Progress& progress);
 Mesh mesh_case(const Case& c, int threads, const Progress& progress);

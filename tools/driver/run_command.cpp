@@ -13,33 +13,11 @@
 #include "tools/driver/commands.hpp"
 #include "tools/driver/errors.hpp"
 #include "tools/driver/output_directory.hpp"
-
-#ifndef HEARTH_VERSION
-#define HEARTH_VERSION "unknown"
-#endif
+#include "tools/driver/transient_run.hpp"
 
 namespace hearth {
 
 namespace {
-
-double min_quality(const Mesh& mesh) {
-  double q = mesh.tet_quality.empty() ? 0.0 : 1.0;
-  for (double v : mesh.tet_quality) q = std::min(q, v);
-  return q;
-}
-
-RunRecord start_record(const Case& c, const Mesh& mesh) {
-  RunRecord record;
-  record.title = c.title;
-  record.case_file = c.file.string();
-  record.hearth_version = HEARTH_VERSION;
-  record.nodes = mesh.n_nodes();
-  record.elements = mesh.n_tets();
-  record.order = mesh.order;
-  record.min_quality = min_quality(mesh);
-  record.blas = loaded_blas();
-  return record;
-}
 
 void write_results(const Case& c, const Mesh& mesh, const std::vector<double>& temperature, const RunRecord& record,
                    const std::vector<std::vector<LineSample>>& lines, const std::filesystem::path& dir,
@@ -60,15 +38,7 @@ void write_results(const Case& c, const Mesh& mesh, const std::vector<double>& t
     }
     write_probes_csv(dir / "probes.csv", names, {{0.0, values}}, c.units);
   }
-  // How the result was made, so that a colleague can make it again.
-  const nlohmann::json provenance = {{"hearth_version", HEARTH_VERSION},
-                                     {"case_file", std::filesystem::absolute(c.file).string()},
-                                     {"input_digest", input_digest(c, options)},
-                                     {"overrides", options.sets},
-                                     {"command_line", options.command_line},
-                                     {"threads", omp_get_max_threads()},
-                                     {"seconds", {{"solve", record.seconds}, {"total", elapsed_seconds}}}};
-  write_summary(dir / "run.json", provenance);
+  write_summary(dir / "run.json", run_provenance(c, options, record.seconds, elapsed_seconds));
   const auto summary = summary_json(record, c.units);
   write_summary(dir / "summary.json", summary);  // last: its presence marks a whole result
   if (options.summary_only) std::cout << summary.dump(2) << std::endl;
@@ -81,6 +51,7 @@ int run_command(const CommonOptions& options) {
   const Progress progress(options.quiet);
   const Case c = load_case(options, progress);
   const std::filesystem::path out = output_directory(c, options);
+  if (c.analysis_type == "transient") return run_transient(options, c, out, progress);
   const Mesh mesh = mesh_case(c, options.threads, progress);
   check_names_against_mesh(c, mesh);
   check_interrupt("after meshing; nothing was written");
