@@ -48,9 +48,9 @@ struct StepOutcome {
 class StepSolver {
  public:
   StepSolver(const Mesh& mesh, const ThermalProblem& base, const LinearSolverSettings& settings,
-             const NonlinearSettings& nonlinear, double update_tolerance)
+             const NonlinearSettings& nonlinear, double update_tolerance, bool reuse)
       : mesh_(mesh), dofs_(make_dof_map(mesh, base)), assembler_(mesh, dofs_), nonlinear_(nonlinear),
-        update_tolerance_(update_tolerance) {
+        update_tolerance_(update_tolerance), reuse_(reuse) {
     bool symmetric = true;
     for (const auto& r : base.regions) symmetric &= !r.conductivity.depends_on_temperature();
     linear_ = make_linear_solver(settings, dofs_.n_free(), symmetric);
@@ -133,6 +133,7 @@ class StepSolver {
  private:
   // Sets the linear solver up for A_ unless A_ is the matrix it already has.
   void prepare(bool nonlinear) {
+    if (!reuse_) return rebuild();
     const std::uint64_t hash = value_hash(A_.val);
     if (ready_ && hash == hash_) {
       ++reuses;
@@ -163,6 +164,7 @@ class StepSolver {
   Assembler assembler_;
   NonlinearSettings nonlinear_;
   double update_tolerance_;
+  bool reuse_;
   std::unique_ptr<LinearSolver> linear_;
   bool direct_ = false, ready_ = false, kept_ = false, rebuild_next_ = false;
   int fresh_iterations_ = 0;
@@ -237,7 +239,8 @@ TransientSolution solve_transient(const Mesh& mesh, const TransientProblem& prob
     return false;
   };
 
-  StepSolver stepper(mesh, problem.base, linear, settings.nonlinear, std::min(1e-4, 1e-3 * settings.tolerance));
+  StepSolver stepper(mesh, problem.base, linear, settings.nonlinear, std::min(1e-4, 1e-3 * settings.tolerance),
+                     settings.reuse_linear_solver);
   solution.dofs = stepper.dofs().n_free();
   solution.linear_solver = stepper.solver_name();
   const auto neighbours = face_neighbours(mesh);

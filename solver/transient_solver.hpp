@@ -42,6 +42,9 @@ struct TransientSettings {
   double max_growth = 2.0;
   double max_shrink = 0.2;
   double min_step_fraction = 1e-9;
+  // Keep the factorisation or multigrid hierarchy between steps (off: set up the linear
+  // solver afresh at every Newton iteration; for comparisons).
+  bool reuse_linear_solver = true;
 };
 
 // A problem whose boundary values and sources follow time tables.

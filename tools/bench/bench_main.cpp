@@ -6,7 +6,11 @@
 // of assembly + solve per unknown, measured after handing freed memory back (Gmsh's own excluded).
 //
 //   hearth_bench [--order 1|2] [--sizes 0.05,0.03,...] [--solvers direct,iterative]
-//                [--direct-limit N] [--repeat R] [--newton on]
+//                [--direct-limit N] [--repeat R] [--newton on] [--transient on]
+//
+// --transient on: heat-up of the box (rho c = 1e6 J/(m3 K)) from 0 K with the face at
+// 100 K, 20 fixed steps of 50 s by BDF2, with the linear solver kept between steps
+// and set up afresh at every step: seconds for the first step and per later step.
 #include <omp.h>
 #include <malloc.h>
 #include <unistd.h>
@@ -25,6 +29,7 @@
 #include "solver/dof_map.hpp"
 #include "solver/linear_solver.hpp"
 #include "solver/steady_solver.hpp"
+#include "solver/transient_solver.hpp"
 
 namespace {
 
@@ -100,7 +105,7 @@ int main(int argc, char** argv) {
   std::vector<double> sizes = {0.08, 0.05, 0.03, 0.02, 0.0135};
   std::vector<std::string> solvers = {"direct", "iterative"};
   std::int64_t direct_limit = 250000;
-  bool newton = false;
+  bool newton = false, transient = false;
   for (int i = 1; i + 1 < argc; i += 2) {
     const std::string key = argv[i], value = argv[i + 1];
     if (key == "--order") order = std::stoi(value);
@@ -108,6 +113,7 @@ int main(int argc, char** argv) {
     else if (key == "--repeat") repeat = std::stoi(value);
     else if (key == "--direct-limit") direct_limit = std::stoll(value);
     else if (key == "--newton") newton = value == "on";
+    else if (key == "--transient") transient = value == "on";
     else if (key == "--solvers") {
       solvers.clear();
       std::stringstream in(value);
@@ -160,6 +166,34 @@ int main(int argc, char** argv) {
                   lin.linear_iterations, non.nonlinear_iterations, non.linear.solver.c_str(), non.linear_iterations,
                   newton_seconds, newton_seconds / linear_seconds, non.converged() ? "" : " NOT CONVERGED");
       std::fflush(stdout);
+      continue;
+    }
+    if (transient) {
+      TransientProblem heat_up;
+      heat_up.base = problem;
+      heat_up.base.boundaries[0].temperature = 100.0;
+      heat_up.base.regions[0].heat_source = 0.0;
+      heat_up.base.regions[0].capacity = HeatCapacity(PiecewiseLinear(1000.0), PiecewiseLinear(1000.0));
+      for (const bool reuse : {true, false}) {
+        TransientSettings ts;
+        ts.duration = 1000.0;
+        ts.initial_step = 50.0;
+        ts.adaptive = false;
+        ts.output_times = {1000.0};
+        ts.reuse_linear_solver = reuse;
+        LinearSolverSettings settings;
+        settings.tolerance = 1e-8;
+        const TransientSolution run =
+            solve_transient(mesh, heat_up, std::vector<double>(mesh.n_nodes(), 0.0), ts, settings);
+        const double later = (run.seconds - run.first_step_seconds) / std::max(1, run.steps - 1);
+        std::printf("%8.4f %9zu %9zu %8.2f | transient %s, %s: %d steps, first %.2f s, later %.3f s a step "
+                    "(%.2f x), total %.2f s, %d set-ups, %d reuses, %d linear iterations%s\n",
+                    size, mesh.n_nodes(), mesh.n_tets(), mesh_seconds, run.linear_solver.c_str(),
+                    reuse ? "solver kept" : "solver set up every step", run.steps, run.first_step_seconds, later,
+                    later / run.first_step_seconds, run.seconds, run.preconditioner_setups, run.matrix_reuses,
+                    run.linear_iterations, run.completed ? "" : " NOT COMPLETED");
+        std::fflush(stdout);
+      }
       continue;
     }
     for (const auto& name : solvers) {
