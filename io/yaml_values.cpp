@@ -2,6 +2,7 @@
 #include "io/yaml_values.hpp"
 
 #include <cmath>
+#include <sstream>
 
 #include "io/input_error.hpp"
 
@@ -36,42 +37,75 @@ std::optional<double> yaml_number(const YAML::Node& node) {
   return x;
 }
 
+namespace {
+
+// A number as a person would write it: 400, 0.09, 1e-05.
+std::string number_text(double x) {
+  std::ostringstream out;
+  out << x;
+  return out.str();
+}
+
+// The shape every table shares: a list of at least 2 rows of two finite numbers. Checks
+// it and returns the rows as numbers, with each row's place and its text for messages.
+struct TableRow {
+  double first = 0.0, second = 0.0;
+  Place at;
+  std::string written;  // "row 2 [400, 0.09]"
+};
+
+std::vector<TableRow> read_rows(const YAML::Node& rows, const Place& where, const std::string& row_form,
+                                const std::string& row_units, const std::string& first_name,
+                                const std::string& second_name, const std::string& constant_hint) {
+  if (!rows.IsSequence())
+    input_error(where, "expected a table [" + row_form + ", ...] " + row_units + ", found " + yaml_text(rows));
+  if (rows.size() < 2)
+    input_error(where, "has " + std::to_string(rows.size()) + " row" + (rows.size() == 1 ? "" : "s") +
+                           "; a table needs at least 2 rows " + row_form + " " + row_units + " (for a constant " +
+                           constant_hint + " write the number itself)");
+  std::vector<TableRow> out;
+  for (std::size_t i = 0; i < rows.size(); ++i) {
+    const YAML::Node row = rows[i];
+    TableRow r;
+    r.at = place_at(where, row);
+    const std::string name = "row " + std::to_string(i + 1);
+    if (!row.IsSequence() || row.size() != 2)
+      input_error(r.at, name + ": expected " + row_form + ", two numbers " + row_units + ", found " +
+                            (row.IsSequence() ? std::to_string(row.size()) + " values " + yaml_text(row) : yaml_text(row)));
+    r.written = name + " " + yaml_text(row);
+    const std::optional<double> a = yaml_number(row[0]), b = yaml_number(row[1]);
+    if (!a) input_error(r.at, r.written + ": " + first_name + " = " + yaml_text(row[0]) + " is not a finite number");
+    if (!b) input_error(r.at, r.written + ": " + second_name + " = " + yaml_text(row[1]) + " is not a finite number");
+    r.first = *a;
+    r.second = *b;
+    out.push_back(r);
+  }
+  return out;
+}
+
+}  // namespace
+
 PiecewiseLinear read_temperature_table(const YAML::Node& rows, const Place& where, const Units& units,
                                        const TableColumns& columns) {
   const std::string row_form = "[" + columns.temperature + ", " + columns.value + "]";
   const std::string row_units =
       "(" + columns.temperature + " in " + units.temperature + ", " + columns.value + " in " + columns.value_unit + ")";
-  if (!rows.IsSequence())
-    input_error(where, "expected a table [" + row_form + ", ...] " + row_units + ", found " + yaml_text(rows));
-  if (rows.size() < 2)
-    input_error(where, "has " + std::to_string(rows.size()) + " row" + (rows.size() == 1 ? "" : "s") +
-                           "; a table needs at least 2 rows " + row_form + " " + row_units +
-                           " (for a constant " + columns.value + " write the number itself)");
-
   PiecewiseLinear table;
-  for (std::size_t i = 0; i < rows.size(); ++i) {
-    const YAML::Node row = rows[i];
-    const Place at = place_at(where, row);
-    const std::string name = "row " + std::to_string(i + 1);
-    if (!row.IsSequence() || row.size() != 2)
-      input_error(at, name + ": expected " + row_form + ", two numbers " + row_units + ", found " +
-                          (row.IsSequence() ? std::to_string(row.size()) + " values " + yaml_text(row) : yaml_text(row)));
-    const std::string written = name + " " + yaml_text(row);
-    const std::optional<double> t = yaml_number(row[0]), v = yaml_number(row[1]);
-    if (!t) input_error(at, written + ": " + columns.temperature + " = " + yaml_text(row[0]) + " is not a finite number");
-    if (!v) input_error(at, written + ": " + columns.value + " = " + yaml_text(row[1]) + " is not a finite number");
-    const double kelvin = units.to_kelvin(*t);
+  double previous = 0.0;  // as written
+  for (const TableRow& r : read_rows(rows, where, row_form, row_units, columns.temperature, columns.value, columns.value)) {
+    const double kelvin = units.to_kelvin(r.first);
     if (kelvin < 0.0)
-      input_error(at, written + ": " + row[0].Scalar() + " " + units.temperature + " is below absolute zero (" +
-                          (units.temperature == "K" ? "0 K" : "-273.15 degC") + ")");
-    if (i > 0 && !(kelvin > table.x.back()))
-      input_error(at, written + ": temperatures must increase strictly down the table; " + row[0].Scalar() + " " +
-                          units.temperature + " follows " + rows[i - 1][0].Scalar() + " " + units.temperature);
-    if (!(*v > 0.0))
-      input_error(at, written + ": " + columns.value + " = " + row[1].Scalar() + " is not allowed; must be > 0 (" +
-                          columns.value_unit + ")");
+      input_error(r.at, r.written + ": " + number_text(r.first) + " " + units.temperature + " is below absolute zero (" +
+                            (units.temperature == "K" ? "0 K" : "-273.15 degC") + ")");
+    if (!table.x.empty() && !(kelvin > table.x.back()))
+      input_error(r.at, r.written + ": temperatures must increase strictly down the table; " + number_text(r.first) +
+                            " " + units.temperature + " follows " + number_text(previous) + " " + units.temperature);
+    if (!(r.second > 0.0))
+      input_error(r.at, r.written + ": " + columns.value + " = " + number_text(r.second) + " is not allowed; must be > 0 (" +
+                            columns.value_unit + ")");
     table.x.push_back(kelvin);
-    table.y.push_back(*v);
+    table.y.push_back(r.second);
+    previous = r.first;
   }
   return table;
 }
@@ -81,35 +115,20 @@ TimeTable read_time_table(const YAML::Node& rows, const Place& where, const std:
                           const std::function<std::string(double written, double& si)>& convert) {
   const std::string row_form = "[t, " + value_name + "]";
   const std::string row_units = "(t in s, " + value_name + " in " + value_unit + ")";
-  if (!rows.IsSequence())
-    input_error(where, "expected a table [" + row_form + ", ...] " + row_units + ", found " + yaml_text(rows));
-  if (rows.size() < 2)
-    input_error(where, "has " + std::to_string(rows.size()) + " row" + (rows.size() == 1 ? "" : "s") +
-                           "; a table needs at least 2 rows " + row_form + " " + row_units +
-                           " (for a constant value write the number itself)");
   TimeTable table;
-  for (std::size_t i = 0; i < rows.size(); ++i) {
-    const YAML::Node row = rows[i];
-    const Place at = place_at(where, row);
-    const std::string name = "row " + std::to_string(i + 1);
-    if (!row.IsSequence() || row.size() != 2)
-      input_error(at, name + ": expected " + row_form + ", two numbers " + row_units + ", found " +
-                          (row.IsSequence() ? std::to_string(row.size()) + " values " + yaml_text(row) : yaml_text(row)));
-    const std::string written = name + " " + yaml_text(row);
-    const std::optional<double> t = yaml_number(row[0]), v = yaml_number(row[1]);
-    if (!t) input_error(at, written + ": t = " + yaml_text(row[0]) + " is not a finite number");
-    if (!v) input_error(at, written + ": " + value_name + " = " + yaml_text(row[1]) + " is not a finite number");
-    if (*t < 0.0) input_error(at, written + ": t = " + row[0].Scalar() + " s is before the start (t = 0)");
-    if (i > 0 && *t < table.t.back())
-      input_error(at, written + ": times must not decrease down the table; " + row[0].Scalar() + " s follows " +
-                          rows[i - 1][0].Scalar() + " s");
-    if (i > 1 && *t == table.t[i - 1] && *t == table.t[i - 2])
-      input_error(at, written + ": the time " + row[0].Scalar() +
-                          " s is given three times; a step needs it twice (the value before and after)");
+  for (const TableRow& r : read_rows(rows, where, row_form, row_units, "t", value_name, "value")) {
+    const std::size_t i = table.t.size();
+    if (r.first < 0.0) input_error(r.at, r.written + ": t = " + number_text(r.first) + " s is before the start (t = 0)");
+    if (i > 0 && r.first < table.t.back())
+      input_error(r.at, r.written + ": times must not decrease down the table; " + number_text(r.first) +
+                            " s follows " + number_text(table.t.back()) + " s");
+    if (i > 1 && r.first == table.t[i - 1] && r.first == table.t[i - 2])
+      input_error(r.at, r.written + ": the time " + number_text(r.first) +
+                            " s is given three times; a step needs it twice (the value before and after)");
     double si = 0.0;
-    const std::string bad = convert(*v, si);
-    if (!bad.empty()) input_error(at, written + ": " + bad);
-    table.t.push_back(*t);
+    const std::string bad = convert(r.second, si);
+    if (!bad.empty()) input_error(r.at, r.written + ": " + bad);
+    table.t.push_back(r.first);
     table.v.push_back(si);
   }
   return table;

@@ -40,17 +40,8 @@ std::vector<std::string> names_of(const std::vector<NamedEntity>& entities) {
   return names;
 }
 
-int index_of(const std::vector<NamedEntity>& entities, const std::string& name) {
-  for (std::size_t i = 0; i < entities.size(); ++i)
-    if (entities[i].name == name) return static_cast<int>(i);
-  return -1;
-}
-
-std::string fmt(const char* format, double value) {
-  char buffer[64];
-  std::snprintf(buffer, sizeof buffer, format, value);
-  return buffer;
-}
+int index_of(const std::vector<NamedEntity>& entities, const std::string& name) { return entity_index(entities, name); }
+std::string fmt(const char* format, double value) { return format_number(format, value); }
 
 }  // namespace
 
@@ -86,6 +77,18 @@ double min_quality(const Mesh& mesh) {
   return q;
 }
 }  // namespace
+
+int entity_index(const std::vector<NamedEntity>& entities, const std::string& name) {
+  for (std::size_t i = 0; i < entities.size(); ++i)
+    if (entities[i].name == name) return static_cast<int>(i);
+  return -1;
+}
+
+std::string format_number(const char* format, double value) {
+  char buffer[64];
+  std::snprintf(buffer, sizeof buffer, format, value);
+  return buffer;
+}
 
 std::string geometry_digest(const Case& c) {
   std::ifstream in(c.geometry_file, std::ios::binary);
@@ -360,7 +363,7 @@ std::vector<TouchRecord> touch_checks(const Case& c, const Mesh& mesh, const Res
     const int b = index_of(mesh.boundaries, name);
     if (b < 0) continue;  // checked against the mesh before the solve
     const BoundaryResult& r = results.boundaries[b];
-    out.push_back({name, r.temperature.max, r.hottest, c.touch_limit});
+    out.push_back({name, r.temperature.max, r.hottest, c.touch_limit, std::nullopt, std::nullopt});
     if (r.temperature.max > c.touch_limit) {
       const double s = 1.0 / c.units.metres_per_length();
       std::ostringstream w;

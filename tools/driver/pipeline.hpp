@@ -32,6 +32,11 @@ struct CommonOptions {
 // FNV-1a 64-bit of their bytes, as 16 hex digits. Equal digests: same inputs.
 std::string input_digest(const Case& c, const CommonOptions& options);
 
+// Index of the region or boundary called `name`, or -1.
+int entity_index(const std::vector<NamedEntity>& entities, const std::string& name);
+// One number by a printf format, for messages ("%.1f").
+std::string format_number(const char* format, double value);
+
 // FNV-1a 64-bit of the geometry file's bytes: a restart checks that its mesh still
 // belongs to the case's geometry.
 std::string geometry_digest(const Case& c);

@@ -22,17 +22,8 @@ namespace hearth {
 
 namespace {
 
-int index_of(const std::vector<NamedEntity>& entities, const std::string& name) {
-  for (std::size_t i = 0; i < entities.size(); ++i)
-    if (entities[i].name == name) return static_cast<int>(i);
-  return -1;
-}
-
-std::string fmt(const char* format, double value) {
-  char buffer[64];
-  std::snprintf(buffer, sizeof buffer, format, value);
-  return buffer;
-}
+int index_of(const std::vector<NamedEntity>& entities, const std::string& name) { return entity_index(entities, name); }
+std::string fmt(const char* format, double value) { return format_number(format, value); }
 
 // The mesh: the stored one of the result the run starts from, else a new one.
 Mesh transient_mesh(const Case& c, const CommonOptions& options, const Progress& progress,
