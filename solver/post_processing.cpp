@@ -304,7 +304,30 @@ std::vector<double> surface_heat_rates(const Mesh& mesh, const ThermalProblem& p
   }
   bool any_fixed = false;
   for (const auto& bc : problem.boundaries) any_fixed |= bc.is_fixed();
-  if (any_fixed) add_reaction_heat_rates(mesh, problem, nodal_residual(mesh, problem, T), T, neighbours, boundaries);
+  if (any_fixed) {
+    // Reactions are needed at fixed nodes only: the residual of the elements and faces
+    // that touch one is enough (not with cut contact faces, whose coupling the masked
+    // residual leaves out).
+    std::vector<char> fixed_node(mesh.n_nodes(), 0);
+    for (std::size_t f = 0; f < mesh.n_faces(); ++f)
+      if (problem.boundaries[mesh.face_boundary[f]].is_fixed())
+        for (int a = 0; a < mesh.nodes_per_face(); ++a) fixed_node[mesh.face(f)[a]] = 1;
+    auto touches = [&](const std::int32_t* nodes, int n) {
+      for (int a = 0; a < n; ++a)
+        if (fixed_node[nodes[a]]) return char(1);
+      return char(0);
+    };
+    std::vector<double> residual;
+    if (mesh.face_twin_nodes.empty()) {
+      std::vector<char> element_mask(mesh.n_tets()), face_mask(mesh.n_faces());
+      for (std::size_t e = 0; e < mesh.n_tets(); ++e) element_mask[e] = touches(mesh.tet(e), mesh.nodes_per_tet());
+      for (std::size_t f = 0; f < mesh.n_faces(); ++f) face_mask[f] = touches(mesh.face(f), mesh.nodes_per_face());
+      residual = nodal_residual(mesh, problem, T, &element_mask, &face_mask);
+    } else {
+      residual = nodal_residual(mesh, problem, T);
+    }
+    add_reaction_heat_rates(mesh, problem, residual, T, neighbours, boundaries);
+  }
   std::vector<double> rates;
   for (const auto& b : boundaries) rates.push_back(b.heat_rate);
   return rates;
