@@ -13,6 +13,7 @@
 #include <set>
 #include <sstream>
 
+#include "mesh/geometry_guard.hpp"
 #include "mesh/gmsh_arrays.hpp"
 #include "mesh/gmsh_session.hpp"
 #include "mesh/mesh_error.hpp"
@@ -63,7 +64,10 @@ GeometryKind check_request(const MeshRequest& request) {
   if (!std::filesystem::is_regular_file(request.geometry_file, error))
     throw MeshError(file + ": geometry file not found");
   const std::string extension = lower_extension(request.geometry_file);
-  if (extension == ".geo") return GeometryKind::script;
+  if (extension == ".geo") {
+    if (!request.trust_geometry) refuse_unsafe_geometry(scan_geometry_script(request.geometry_file));
+    return GeometryKind::script;
+  }
   if (extension == ".step" || extension == ".stp" || extension == ".brep") return GeometryKind::cad;
   if (extension == ".msh") return GeometryKind::ready_mesh;
   throw MeshError(file + ": unsupported geometry file type '" + extension +

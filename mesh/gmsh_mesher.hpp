@@ -12,7 +12,9 @@ namespace hearth {
 // message where it fails), converts to a Mesh in metres with named regions and
 // boundaries, checks every element has a positive Jacobian and computes its quality.
 // Throws MeshError for unreadable or unusable geometry, naming the file and Gmsh's
-// message. Gmsh's own messages go to request.progress, never to the terminal.
+// message, and, unless request.trust_geometry, for a geometry script that holds
+// constructs that run programs or write files (refuse_unsafe_geometry), before Gmsh
+// sees it. Gmsh's own messages go to request.progress, never to the terminal.
 Mesh build_mesh(const MeshRequest& request);
 
 // Nested meshes for convergence checks: the mesh of build_mesh, then `levels - 1`

@@ -6,6 +6,7 @@
 #include <unistd.h>
 
 #include <cctype>
+#include <cstdlib>
 #include <csignal>
 #include <iostream>
 #include <stdexcept>
@@ -126,8 +127,21 @@ void GmshSession::report(const std::string& line) const {
   if (progress_) progress_(line);
 }
 
+namespace {
+// An anonymous scratch file in $TMPDIR (else /tmp): std::tmpfile() always uses /tmp,
+// which is read-only inside the meshing sandbox.
+std::FILE* scratch_file() {
+  const char* folder = std::getenv("TMPDIR");
+  std::string pattern = std::string(folder && *folder ? folder : "/tmp") + "/hearth-capture-XXXXXX";
+  const int fd = mkstemp(pattern.data());
+  if (fd < 0) return nullptr;
+  unlink(pattern.c_str());
+  return fdopen(fd, "w+");
+}
+}  // namespace
+
 TerminalCapture::TerminalCapture() {
-  file_ = std::tmpfile();
+  file_ = scratch_file();
   if (file_ == nullptr) return;  // nothing captured; output stays on the terminal
   std::cout.flush();
   std::cerr.flush();

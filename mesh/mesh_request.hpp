@@ -23,6 +23,9 @@ struct MeshRequest {
   // 3D algorithm: "hxt" (Gmsh's parallel Delaunay, falling back to "delaunay" where it
   // fails) or "delaunay" alone (the retry when HXT crashed in a worker process).
   std::string algorithm = "hxt";
+  // --trust-geometry: hand a geometry script to Gmsh without scanning it for constructs
+  // that run programs or write files (mesh/geometry_guard.hpp).
+  bool trust_geometry = false;
   std::function<void(const std::string&)> progress;  // one line per stage; may be empty
 
   double length_scale() const { return length_unit == "mm" ? 1e-3 : 1.0; }

@@ -28,6 +28,9 @@ void add_common(CLI::App* command, hearth::CommonOptions& options, bool with_out
   command->add_option("--threads", options.threads, "threads for assembly and post-processing (default: all cores) and meshing (default: 2)")
       ->check(CLI::PositiveNumber);
   command->add_flag("--quiet", options.quiet, "no progress lines; warnings and errors only");
+  command->add_flag("--trust-geometry", options.trust_geometry,
+                    "hand the geometry script to Gmsh unchecked and outside the sandbox, even if it runs programs or "
+                    "writes files (only for scripts you trust)");
   if (with_out) command->add_option("--out", options.out, "output folder (default: output.directory of the case)");
   if (with_run_flags)
     command->add_flag("--summary-only", options.summary_only, "also print summary.json to stdout");

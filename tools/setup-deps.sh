@@ -16,6 +16,7 @@ packages=(
   nlohmann-json3-dev             # summary.json
   libopenblas-dev libopenblas0-pthread   # fast BLAS under CHOLMOD
   python3-vtk9 python3-numpy     # independent reader used by the result tests
+  bubblewrap                     # sandbox for parsing geometry from others (tools/driver/sandbox.hpp)
 )
 
 SUDO=""

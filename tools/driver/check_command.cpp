@@ -13,7 +13,7 @@ namespace hearth {
 int check_command(const CommonOptions& options) {
   const Progress progress(options.quiet);
   const Case c = load_case(options, progress);
-  const Mesh mesh = mesh_case(c, options.threads, progress);
+  const Mesh mesh = mesh_case(c, options.threads, progress, options.trust_geometry);
   check_names_against_mesh(c, mesh);
   const ThermalProblem problem = make_problem(c, mesh);
   if (c.analysis_type != "transient") check_determined(c, mesh, problem);  // stored heat sets the level

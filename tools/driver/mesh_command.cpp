@@ -14,7 +14,7 @@ int mesh_command(const CommonOptions& options) {
   const Progress progress(options.quiet);
   const Case c = load_case(options, progress);
   const std::filesystem::path out = output_directory(c, options);
-  const Mesh mesh = mesh_case(c, options.threads, progress);
+  const Mesh mesh = mesh_case(c, options.threads, progress, options.trust_geometry);
 
   // Quality figures: minimum, mean and a histogram of Gmsh's gamma.
   std::vector<std::size_t> histogram(10, 0);

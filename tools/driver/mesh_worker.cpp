@@ -2,6 +2,7 @@
 // this program (/proc/self/exe), started with posix_spawn.
 #include "tools/driver/mesh_worker.hpp"
 
+#include <fcntl.h>
 #include <signal.h>
 #include <spawn.h>
 #include <sys/wait.h>
@@ -17,6 +18,7 @@
 #include "mesh/gmsh_mesher.hpp"
 #include "mesh/mesh_error.hpp"
 #include "tools/driver/errors.hpp"
+#include "tools/driver/sandbox.hpp"
 
 extern char** environ;
 
@@ -98,7 +100,8 @@ Mesh read_mesh(const fs::path& path) {
 nlohmann::json request_json(const MeshRequest& r) {
   return {{"geometry_file", r.geometry_file.string()}, {"length_unit", r.length_unit}, {"size", r.size},
           {"order", r.order},  {"local_sizes", r.local_sizes},  {"refinements", r.refinements},
-          {"threads", r.threads}, {"renumber", r.renumber},     {"algorithm", r.algorithm}};
+          {"threads", r.threads}, {"renumber", r.renumber},     {"algorithm", r.algorithm},
+          {"trust_geometry", r.trust_geometry}};
 }
 
 MeshRequest request_from_json(const nlohmann::json& j) {
@@ -112,20 +115,65 @@ MeshRequest request_from_json(const nlohmann::json& j) {
   r.threads = j.at("threads").get<int>();
   r.renumber = j.at("renumber").get<bool>();
   r.algorithm = j.at("algorithm").get<std::string>();
+  r.trust_geometry = j.at("trust_geometry").get<bool>();
   return r;
 }
 
-// Runs the worker; returns the wait status.
-int run_worker(const fs::path& request_file, const fs::path& mesh_file, bool quiet) {
+// How the worker ended, with the sandbox's conventions undone: bubblewrap exits with
+// 128 + N when the command it runs dies on signal N.
+struct WorkerEnd {
+  bool exited = false;  // exited with `code`, else killed by `signal`
+  int code = 0;
+  int signal = 0;
+};
+
+WorkerEnd worker_end(int status, bool sandboxed) {
+  if (WIFSIGNALED(status)) return {false, 0, WTERMSIG(status)};
+  const int code = WIFEXITED(status) ? WEXITSTATUS(status) : 1;
+  if (sandboxed && code > 128 && code < 128 + 65) return {false, 0, code - 128};
+  return {true, code, 0};
+}
+
+// Waits (briefly) until process `pid` is gone: the sandbox's own process, which goes
+// with everything inside it when bubblewrap is stopped.
+void wait_until_gone(pid_t pid) {
+  for (int k = 0; k < 150 && pid > 0 && kill(pid, 0) == 0; ++k) usleep(20000);
+}
+
+// Runs the worker, in the sandbox when `sandbox` is set and bubblewrap works here;
+// returns how it ended. `note` receives a line when a sandbox was asked for and
+// cannot be had.
+WorkerEnd run_worker(const fs::path& dir, const fs::path& request_file, const fs::path& mesh_file, bool quiet,
+                     bool sandbox, std::string& note) {
   std::string exe = fs::read_symlink("/proc/self/exe").string();
-  std::vector<std::string> args = {exe, mesh_worker_verb, request_file.string(), mesh_file.string()};
+  int info[2] = {-1, -1};  // bubblewrap reports the sandbox's process id here
+  if (sandbox && pipe2(info, O_CLOEXEC) != 0) info[0] = info[1] = -1;
+  std::vector<std::string> args;
+  bool sandboxed = false;
+  if (sandbox) {
+    if (info[1] >= 0) fcntl(info[1], F_SETFD, 0);  // the write end goes to bubblewrap
+    const SandboxPrefix prefix = sandbox_prefix(dir, info[1]);
+    if (prefix.arguments.empty()) note = "parsing the geometry without a sandbox: " + prefix.unavailable;
+    args = prefix.arguments;
+    sandboxed = !args.empty();
+  }
+  for (const std::string& a : {exe, std::string(mesh_worker_verb), request_file.string(), mesh_file.string()})
+    args.push_back(a);
   if (quiet) args.push_back("--quiet");
   std::vector<char*> argv;
   for (auto& a : args) argv.push_back(a.data());
   argv.push_back(nullptr);
   pid_t pid = 0;
-  if (posix_spawn(&pid, exe.c_str(), nullptr, nullptr, argv.data(), environ) != 0)
-    throw std::runtime_error("cannot start the meshing process " + exe);
+  const int spawned = posix_spawn(&pid, argv[0], nullptr, nullptr, argv.data(), environ);
+  if (info[1] >= 0) close(info[1]);
+  struct CloseInfo {
+    int fd;
+    ~CloseInfo() {
+      if (fd >= 0) close(fd);
+    }
+  } close_info{info[0]};
+  if (spawned != 0) throw std::runtime_error("cannot start the meshing process " + args.front());
+  if (info[0] >= 0) fcntl(info[0], F_SETFL, O_NONBLOCK);
   // Poll, so that an interrupt of this process stops the worker too (Ctrl-C reaches the
   // whole process group anyway; a SIGTERM sent to this process alone would not).
   int status = 0;
@@ -139,13 +187,18 @@ int run_worker(const fs::path& request_file, const fs::path& mesh_file, bool qui
     }
     usleep(20000);
   }
+  if (forwarded && sandboxed && info[0] >= 0) {
+    char buffer[4096];
+    const ssize_t n = read(info[0], buffer, sizeof buffer - 1);
+    wait_until_gone(sandbox_child_pid(std::string(buffer, n > 0 ? static_cast<std::size_t>(n) : 0)));
+  }
   check_interrupt("while meshing; nothing was written");
-  return status;
+  return worker_end(status, sandboxed);
 }
 
 }  // namespace
 
-Mesh build_mesh_isolated(const MeshRequest& request, bool quiet) {
+Mesh build_mesh_isolated(const MeshRequest& request, bool quiet, bool sandbox) {
   char pattern[] = "/tmp/hearth-mesh-XXXXXX";
   if (!mkdtemp(pattern)) throw std::runtime_error("cannot create a temporary folder for meshing");
   const fs::path dir = pattern;
@@ -160,14 +213,23 @@ Mesh build_mesh_isolated(const MeshRequest& request, bool quiet) {
   for (int round = 0; round < 2; ++round) {
     const fs::path request_file = dir / "request.json", mesh_file = dir / "mesh.bin";
     std::ofstream(request_file) << request_json(attempt).dump();
-    const int status = run_worker(request_file, mesh_file, quiet);
-    if (WIFEXITED(status) && WEXITSTATUS(status) == 0) return read_mesh(mesh_file);
-    if (WIFEXITED(status)) {
+    std::string note;
+    const WorkerEnd end = run_worker(dir, request_file, mesh_file, quiet, sandbox, note);
+    if (!note.empty() && round == 0 && !quiet) std::fprintf(stderr, "note: %s\n", note.c_str());
+    if (end.exited && end.code == 0) {
+      std::error_code error;
+      if (!fs::is_regular_file(mesh_file, error))  // a script's Exit command ends Gmsh, and the worker with it
+        throw MeshError(request.geometry_file.string() +
+                        ": the meshing process ended before it made a mesh; a geometry script must not end Gmsh "
+                        "(remove an Exit command)");
+      return read_mesh(mesh_file);
+    }
+    if (end.exited) {
       std::ifstream error(mesh_file.string() + ".error");
       std::string text((std::istreambuf_iterator<char>(error)), std::istreambuf_iterator<char>());
-      throw MeshError(text.empty() ? "meshing failed (status " + std::to_string(WEXITSTATUS(status)) + ")" : text);
+      throw MeshError(text.empty() ? "meshing failed (status " + std::to_string(end.code) + ")" : text);
     }
-    const int signal = WIFSIGNALED(status) ? WTERMSIG(status) : 0;
+    const int signal = end.signal;
     if (signal == SIGINT) throw Interrupted("interrupted (SIGINT) while meshing; nothing was written", exit_interrupted);
     if (signal == SIGTERM) throw Interrupted("terminated (SIGTERM) while meshing; nothing was written", exit_terminated);
     if (attempt.algorithm == "delaunay")

@@ -13,8 +13,10 @@ namespace hearth {
 
 // Builds the mesh in a worker process (retrying once with request.algorithm =
 // "delaunay" after a crash). MeshError as build_mesh. `quiet`: the worker prints no
-// progress lines.
-Mesh build_mesh_isolated(const MeshRequest& request, bool quiet);
+// progress lines. `sandbox`: the worker runs in the bubblewrap sandbox of
+// tools/driver/sandbox.hpp, where it can write only its own temporary folder; where
+// bubblewrap cannot be used it runs without, and says so on stderr unless quiet.
+Mesh build_mesh_isolated(const MeshRequest& request, bool quiet, bool sandbox);
 
 // The worker command: reads the request from `request_file`, meshes, and writes the
 // mesh to `mesh_file` (or the error text to `mesh_file` + ".error" and returns 1).

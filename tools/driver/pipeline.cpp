@@ -8,6 +8,7 @@
 #include <iterator>
 #include <cmath>
 #include <cstdio>
+#include <cstdlib>
 #include <set>
 #include <sstream>
 
@@ -125,7 +126,7 @@ Case load_case(const CommonOptions& options, const Progress& progress) {
   return c;
 }
 
-Mesh mesh_case(const Case& c, int threads, const Progress& progress) {
+Mesh mesh_case(const Case& c, int threads, const Progress& progress, bool trust_geometry) {
   MeshRequest request;
   request.geometry_file = c.geometry_file;
   request.length_unit = c.units.length;
@@ -135,7 +136,11 @@ Mesh mesh_case(const Case& c, int threads, const Progress& progress) {
   request.refinements = c.mesh_refinements;
   request.threads = threads;
   request.progress = [&progress](const std::string& line) { progress.say(line); };
-  Mesh mesh = build_mesh_isolated(request, progress.quiet());
+  request.trust_geometry = trust_geometry;
+  // Test hook (tests/cli/test_geometry_guard.py): skip the scan but keep the sandbox, to
+  // show that the sandbox alone stops a script from writing.
+  if (std::getenv("HEARTH_TEST_SANDBOX_WITHOUT_GUARD")) request.trust_geometry = true;
+  Mesh mesh = build_mesh_isolated(request, progress.quiet(), /*sandbox=*/!trust_geometry);
   cut_interfaces(c, mesh, progress);
   return mesh;
 }

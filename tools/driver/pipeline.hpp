@@ -26,6 +26,9 @@ struct CommonOptions {
   bool summary_only = false;      // also print summary.json to stdout
   std::string command_line;       // as typed, for run.json
   bool warnings_to_terminal = true;  // false for the levels of a study
+  // --trust-geometry: the geometry script is handed to Gmsh unscanned and parsed outside
+  // the sandbox (it may then run programs and write files, as Gmsh scripts can).
+  bool trust_geometry = false;
 };
 
 // A digest of the run's inputs (case file, geometry file, overrides, threads excluded):
@@ -48,7 +51,10 @@ nlohmann::json run_provenance(const Case& c, const CommonOptions& options, doubl
 RunRecord start_record(const Case& c, const Mesh& mesh);
 
 Case load_case(const CommonOptions& options, const Progress& progress);
-Mesh mesh_case(const Case& c, int threads, const Progress& progress);
+// Meshes the case's geometry in the worker process: unless `trust_geometry`, a script
+// is first scanned by the geometry guard and the worker runs in the sandbox
+// (tools/driver/sandbox.hpp).
+Mesh mesh_case(const Case& c, int threads, const Progress& progress, bool trust_geometry = false);
 // Cuts open every internal surface named under interfaces (thermal contact). Throws
 // InputError for a name the geometry lacks, a surface that is not internal, or one that
 // also has a boundary condition.

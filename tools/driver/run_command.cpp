@@ -52,7 +52,7 @@ int run_command(const CommonOptions& options) {
   const Case c = load_case(options, progress);
   const std::filesystem::path out = output_directory(c, options);
   if (c.analysis_type == "transient") return run_transient(options, c, out, progress);
-  const Mesh mesh = mesh_case(c, options.threads, progress);
+  const Mesh mesh = mesh_case(c, options.threads, progress, options.trust_geometry);
   check_names_against_mesh(c, mesh);
   check_interrupt("after meshing; nothing was written");
   const ThermalProblem problem = make_problem(c, mesh);
