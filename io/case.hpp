@@ -168,6 +168,7 @@ struct Case {
   std::vector<ProbeSpec> probes;
   std::vector<LineSpec> lines;
   std::filesystem::path output_directory;  // absolute
+  Place output_place;                      // the output.directory key (line 0 for the default)
   // Warnings found while reading ("case.yaml:9: materials.board.conductivity.axis_2: ...");
   // the driver prints them and puts them in summary.json.
   std::vector<std::string> warnings;

@@ -1121,6 +1121,8 @@ void read_probes_lines_output(const Reader& reader, const YAML::Node& root, Case
 
   const YAML::Node output = child(root, "output");
   c.output_directory = resolve(c.directory, value_or_default(output, "directory", "output.directory").Scalar());
+  const std::optional<Entry> directory = find_entry(output, "directory");
+  c.output_place = directory ? reader.place(directory->key, "output.directory") : Place{reader.file, 0, "output.directory", ""};
 }
 
 }  // namespace

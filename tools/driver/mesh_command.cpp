@@ -7,6 +7,7 @@
 #include "io/vtu_writer.hpp"
 #include "tools/driver/commands.hpp"
 #include "tools/driver/output_directory.hpp"
+#include "tools/driver/output_lock.hpp"
 
 namespace hearth {
 
@@ -14,6 +15,7 @@ int mesh_command(const CommonOptions& options) {
   const Progress progress(options.quiet);
   const Case c = load_case(options, progress);
   const std::filesystem::path out = output_directory(c, options);
+  const OutputLock lock(out, options.command_line);  // one hearth at a time per folder
   const Mesh mesh = mesh_case(c, options.threads, progress, options.trust_geometry);
 
   // Quality figures: minimum, mean and a histogram of Gmsh's gamma.

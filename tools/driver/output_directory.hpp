@@ -3,8 +3,22 @@
 #pragma once
 
 #include <filesystem>
+#include <string>
+#include <vector>
 
 namespace hearth {
+
+// Resolves `requested` (absolute, symbolic links followed as far as the path exists)
+// and checks it before anything is computed; throws InputError, naming `source` ("--out"
+// or "case.yaml:17: output.directory"), when:
+// - it is the root folder, or a folder that holds any of `inputs` (the case file, its
+//   geometry and the files the geometry includes): replacing it would delete them;
+// - it, or a folder on the way to it, exists and is not a folder;
+// - it exists, is not empty and holds no hearth result (summary.json, run.json,
+//   mesh.json or study.json): replacing it would delete files hearth did not write;
+// - the nearest folder of it that exists cannot be written.
+std::filesystem::path checked_output_directory(const std::filesystem::path& requested, const std::string& source,
+                                               const std::vector<std::filesystem::path>& inputs);
 
 class StagedDirectory {
  public:

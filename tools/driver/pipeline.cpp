@@ -14,7 +14,9 @@
 
 #include "io/case_file.hpp"
 #include "io/input_error.hpp"
+#include "mesh/geometry_guard.hpp"
 #include "mesh/gmsh_mesher.hpp"
+#include "tools/driver/output_directory.hpp"
 #include "tools/driver/mesh_worker.hpp"
 #include "mesh/interface_split.hpp"
 #include "mesh/mesh_topology.hpp"
@@ -385,17 +387,12 @@ std::vector<TouchRecord> touch_checks(const Case& c, const Mesh& mesh, const Res
 
 std::filesystem::path output_directory(const Case& c, const CommonOptions& options) {
   namespace fs = std::filesystem;
-  fs::path out = options.out.empty() ? c.output_directory : fs::absolute(options.out);
-  out = fs::weakly_canonical(out);
-  // Swapping the folder in replaces it whole: it must not hold the inputs.
-  for (const fs::path& input : {fs::weakly_canonical(fs::absolute(c.file)), fs::weakly_canonical(c.geometry_file)}) {
-    const auto rel = input.lexically_relative(out);
-    if (!rel.empty() && *rel.begin() != "..")
-      throw InputError(std::string(options.out.empty() ? "output.directory" : "--out") + ": the output folder " +
-                       out.string() + " contains the input " + input.string() +
-                       " and would be replaced by the results; choose a folder of its own (e.g. results)");
-  }
-  return out;
+  // The inputs the folder must not hold: the case, its geometry and what that includes.
+  std::vector<fs::path> inputs = {c.file, c.geometry_file};
+  if (c.geometry_file.extension() == ".geo")
+    for (const fs::path& file : scan_geometry_script(c.geometry_file).files) inputs.push_back(file);
+  if (!options.out.empty()) return checked_output_directory(options.out, "--out", inputs);
+  return checked_output_directory(c.output_directory, c.output_place.str(), inputs);
 }
 
 void print_human_summary(const Case& c, const RunRecord& record, const std::vector<std::string>& insulated,

@@ -93,7 +93,8 @@ std::vector<ServiceRecord> service_checks(const Case& c, const Mesh& mesh, const
 std::vector<TouchRecord> touch_checks(const Case& c, const Mesh& mesh, const Results& results,
                                       std::vector<std::string>& warnings);
 
-// The output folder: --out, else output.directory. InputError if it would hold the inputs.
+// The output folder: --out, else output.directory, resolved and checked by
+// checked_output_directory (tools/driver/output_directory.hpp) against the case's inputs.
 std::filesystem::path output_directory(const Case& c, const CommonOptions& options);
 
 // The short human summary on stderr after a run.

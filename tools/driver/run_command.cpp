@@ -13,6 +13,7 @@
 #include "tools/driver/commands.hpp"
 #include "tools/driver/errors.hpp"
 #include "tools/driver/output_directory.hpp"
+#include "tools/driver/output_lock.hpp"
 #include "tools/driver/transient_run.hpp"
 
 namespace hearth {
@@ -51,6 +52,7 @@ int run_command(const CommonOptions& options) {
   const Progress progress(options.quiet);
   const Case c = load_case(options, progress);
   const std::filesystem::path out = output_directory(c, options);
+  const OutputLock lock(out, options.command_line);  // one hearth at a time per folder
   if (c.analysis_type == "transient") return run_transient(options, c, out, progress);
   const Mesh mesh = mesh_case(c, options.threads, progress, options.trust_geometry);
   check_names_against_mesh(c, mesh);

@@ -13,6 +13,7 @@
 #include "solver/convergence_study.hpp"
 #include "tools/driver/commands.hpp"
 #include "tools/driver/errors.hpp"
+#include "tools/driver/output_lock.hpp"
 
 namespace hearth {
 
@@ -81,6 +82,7 @@ int study_command(const StudyOptions& study) {
   const Progress progress(options.quiet);
   const Case c = load_case(options, progress);
   const fs::path dir = output_directory(c, options);
+  const OutputLock lock(dir, options.command_line);  // one hearth at a time per folder
   const double unit = c.units.metres_per_length();
 
   std::vector<double> sizes = study.sizes;  // in the case's length unit
