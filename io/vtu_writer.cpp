@@ -5,6 +5,7 @@
 #include <vtkCellData.h>
 #include <vtkCellType.h>
 #include <vtkDoubleArray.h>
+#include <vtkErrorCode.h>
 #include <vtkFieldData.h>
 #include <vtkIdTypeArray.h>
 #include <vtkIntArray.h>
@@ -15,9 +16,11 @@
 #include <vtkUnstructuredGrid.h>
 #include <vtkXMLUnstructuredGridWriter.h>
 
+#include <cerrno>
 #include <stdexcept>
 
 #include "io/atomic_file.hpp"
+#include "io/write_error.hpp"
 
 namespace hearth {
 
@@ -142,7 +145,10 @@ void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units&
     grid->GetCellData()->AddArray(q);
   }
 
+  // VTK reports a failure through its error code; keep its own messages off the terminal.
+  vtkObject::GlobalWarningDisplayOff();
   write_atomically(path, [&](const std::filesystem::path& temporary) {
+    errno = 0;
     auto writer = Ptr<vtkXMLUnstructuredGridWriter>::New();
     writer->SetFileName(temporary.c_str());
     writer->SetInputData(grid);
@@ -150,7 +156,10 @@ void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units&
     writer->EncodeAppendedDataOff();
     writer->SetCompressorTypeToZLib();
     writer->SetHeaderTypeToUInt64();
-    if (writer->Write() != 1) throw std::runtime_error("VTK could not write " + path.string());
+    if (writer->Write() != 1 || writer->GetErrorCode() != vtkErrorCode::NoError)
+      throw WriteError(write_failure(path, writer->GetErrorCode() == vtkErrorCode::OutOfDiskSpaceError ? ENOSPC
+                                           : errno != 0                                               ? errno
+                                                                                                      : EIO));
   });
 }
 

@@ -1,6 +1,6 @@
 // hearth: command-line entry. Parses arguments, dispatches to a command, and maps
-// outcomes to exit statuses: 0 done, 1 bad input, 2 solve failed, 3 internal error,
-// 130/143 interrupted.
+// outcomes to exit statuses: 0 done, 1 bad input (or results that cannot be written),
+// 2 solve failed, 3 internal error, 130/143 interrupted.
 #include <CLI/CLI.hpp>
 #include <omp.h>
 
@@ -8,6 +8,7 @@
 #include <exception>
 
 #include "io/input_error.hpp"
+#include "io/write_error.hpp"
 #include "mesh/mesh_error.hpp"
 #include "tools/driver/commands.hpp"
 #include "tools/driver/errors.hpp"
@@ -106,6 +107,9 @@ int main(int argc, char** argv) {
     std::fprintf(stderr, "error: %s\n", e.what());
     return hearth::exit_bad_input;
   } catch (const hearth::MeshError& e) {
+    std::fprintf(stderr, "error: %s\n", e.what());
+    return hearth::exit_bad_input;
+  } catch (const hearth::WriteError& e) {  // disk full, no permission: the user can fix it
     std::fprintf(stderr, "error: %s\n", e.what());
     return hearth::exit_bad_input;
   } catch (const hearth::SolveFailed& e) {

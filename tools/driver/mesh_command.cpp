@@ -40,8 +40,10 @@ int mesh_command(const CommonOptions& options) {
   StagedDirectory staged(out);
   VtuFields fields;
   fields.quality = true;
-  write_vtu(staged.path() / "mesh.vtu", mesh, c.units, fields);
-  write_summary(staged.path() / "mesh.json", figures);
+  staged.fill([&](const std::filesystem::path& dir) {
+    write_vtu(dir / "mesh.vtu", mesh, c.units, fields);
+    write_summary(dir / "mesh.json", figures);
+  });
   staged.commit();
   if (options.quiet) return 0;
   std::fprintf(stderr, "mesh: %zu nodes, %zu elements, min quality %.3f, mean %.3f\n", mesh.n_nodes(), mesh.n_tets(),

@@ -15,6 +15,8 @@
 #include <nlohmann/json.hpp>
 #include <stdexcept>
 
+#include "io/atomic_file.hpp"
+#include "io/write_error.hpp"
 #include "mesh/gmsh_mesher.hpp"
 #include "mesh/mesh_error.hpp"
 #include "tools/driver/errors.hpp"
@@ -75,7 +77,7 @@ void write_mesh(const fs::path& path, const Mesh& m) {
   put_entities(out, m.boundaries);
   const std::uint64_t unnamed = m.unnamed_exterior_faces;
   out.write(reinterpret_cast<const char*>(&unnamed), sizeof unnamed);
-  if (!out) throw std::runtime_error("cannot write the mesh to " + path.string());
+  if (!out) throw WriteError(write_failure(path, errno) + " (the mesh, in the meshing process's temporary folder)");
 }
 
 Mesh read_mesh(const fs::path& path) {
@@ -200,7 +202,8 @@ WorkerEnd run_worker(const fs::path& dir, const fs::path& request_file, const fs
 
 Mesh build_mesh_isolated(const MeshRequest& request, bool quiet, bool sandbox) {
   char pattern[] = "/tmp/hearth-mesh-XXXXXX";
-  if (!mkdtemp(pattern)) throw std::runtime_error("cannot create a temporary folder for meshing");
+  if (!mkdtemp(pattern))
+    throw WriteError(std::string("cannot create a temporary folder for meshing in /tmp: ") + std::strerror(errno));
   const fs::path dir = pattern;
   struct Cleanup {
     fs::path dir;
@@ -212,7 +215,12 @@ Mesh build_mesh_isolated(const MeshRequest& request, bool quiet, bool sandbox) {
   MeshRequest attempt = request;
   for (int round = 0; round < 2; ++round) {
     const fs::path request_file = dir / "request.json", mesh_file = dir / "mesh.bin";
-    std::ofstream(request_file) << request_json(attempt).dump();
+    {
+      std::ofstream out(request_file);
+      out << request_json(attempt).dump();
+      out.close();
+      if (!out) throw WriteError(write_failure(request_file, errno) + " (the meshing request, in /tmp)");
+    }
     std::string note;
     const WorkerEnd end = run_worker(dir, request_file, mesh_file, quiet, sandbox, note);
     if (!note.empty() && round == 0 && !quiet) std::fprintf(stderr, "note: %s\n", note.c_str());
@@ -245,10 +253,10 @@ Mesh build_mesh_isolated(const MeshRequest& request, bool quiet, bool sandbox) {
 }
 
 int mesh_worker_command(const std::string& request_file, const std::string& mesh_file, bool quiet) {
-  std::ifstream in(request_file);
-  MeshRequest request = request_from_json(nlohmann::json::parse(in));
-  if (!quiet) request.progress = [](const std::string& line) { std::fprintf(stderr, "           %s\n", line.c_str()); };
   try {
+    std::ifstream in(request_file);
+    MeshRequest request = request_from_json(nlohmann::json::parse(in));
+    if (!quiet) request.progress = [](const std::string& line) { std::fprintf(stderr, "           %s\n", line.c_str()); };
     write_mesh(mesh_file, build_mesh(request));
     return 0;
   } catch (const std::exception& e) {

@@ -8,6 +8,7 @@
 #include <cstring>
 
 #include "io/input_error.hpp"
+#include "io/write_error.hpp"
 
 namespace hearth {
 
@@ -76,11 +77,11 @@ StagedDirectory::StagedDirectory(fs::path final_path) : final_(std::move(final_p
   staging_ += ".partial-" + std::to_string(::getpid());
   std::error_code ec;
   fs::create_directories(final_.parent_path(), ec);
-  if (ec) throw InputError("cannot create the output folder " + final_.parent_path().string() + ": " + ec.message() +
+  if (ec) throw WriteError("cannot create the output folder " + final_.parent_path().string() + ": " + ec.message() +
                            "; choose another with --out or output.directory");
   fs::remove_all(staging_, ec);
   fs::create_directory(staging_, ec);
-  if (ec) throw InputError("cannot write in " + final_.parent_path().string() + ": " + ec.message() +
+  if (ec) throw WriteError("cannot write in " + final_.parent_path().string() + ": " + ec.message() +
                            "; choose another output folder with --out or output.directory");
 }
 
@@ -90,17 +91,41 @@ StagedDirectory::~StagedDirectory() {
   fs::remove_all(staging_, ec);
 }
 
+void StagedDirectory::fill(const std::function<void(const fs::path&)>& write) {
+  try {
+    write(staging_);
+  } catch (const WriteError& e) {
+    std::error_code ec;
+    const bool had_results = fs::exists(final_, ec);
+    // Name the file by where it was to end up; the staging folder is gone by then.
+    std::string what = e.what();
+    for (std::size_t at = what.find(staging_.string()); at != std::string::npos; at = what.find(staging_.string()))
+      what.replace(at, staging_.string().size(), final_.string());
+    throw WriteError(what + "; " +
+                     (had_results ? "the earlier results in " + final_.string() + " are unchanged"
+                                  : "nothing was written to " + final_.string()) +
+                     "; free some space or choose another folder with --out");
+  }
+}
+
 void StagedDirectory::commit() {
   fs::path old = final_;
   old += ".old-" + std::to_string(::getpid());
-  const bool had_old = fs::exists(final_);
-  if (had_old) fs::rename(final_, old);
-  fs::rename(staging_, final_);
-  committed_ = true;
+  std::error_code ec;
+  const bool had_old = fs::exists(final_, ec);
   if (had_old) {
-    std::error_code ec;
-    fs::remove_all(old, ec);
+    fs::rename(final_, old, ec);
+    if (ec) throw WriteError("cannot replace " + final_.string() + ": " + ec.message() + "; it is unchanged");
   }
+  fs::rename(staging_, final_, ec);
+  if (ec) {
+    std::error_code restored;
+    if (had_old) fs::rename(old, final_, restored);
+    throw WriteError("cannot put the results in place as " + final_.string() + ": " + ec.message() +
+                     (had_old && !restored ? "; the earlier results are unchanged" : ""));
+  }
+  committed_ = true;
+  if (had_old) fs::remove_all(old, ec);
 }
 
 }  // namespace hearth

@@ -3,6 +3,7 @@
 #pragma once
 
 #include <filesystem>
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -22,7 +23,7 @@ std::filesystem::path checked_output_directory(const std::filesystem::path& requ
 
 class StagedDirectory {
  public:
-  // Creates `final_path`.partial-<pid>; throws InputError if the parent is not writable.
+  // Creates `final_path`.partial-<pid>; throws WriteError if the parent is not writable.
   explicit StagedDirectory(std::filesystem::path final_path);
   ~StagedDirectory();  // removes the staging folder unless committed
   StagedDirectory(const StagedDirectory&) = delete;
@@ -30,7 +31,11 @@ class StagedDirectory {
 
   const std::filesystem::path& path() const { return staging_; }
   const std::filesystem::path& final_path() const { return final_; }
-  // Replaces final_path as a whole with the staged folder.
+  // Calls write(path()). A WriteError from it (disk full, no permission) is thrown on
+  // with the note that final_path was left as it was.
+  void fill(const std::function<void(const std::filesystem::path&)>& write);
+  // Replaces final_path as a whole with the staged folder; WriteError, with final_path
+  // as it was, if the renames fail.
   void commit();
 
  private:

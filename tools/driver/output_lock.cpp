@@ -40,7 +40,7 @@ std::string now_text() {
 OutputLock::OutputLock(const fs::path& output, const std::string& command_line) {
   const fs::path parent = output.parent_path();
   file_ = parent / ("." + output.filename().string() + ".lock");
-  for (fs::path p = parent; !p.empty() && !fs::exists(p); p = p.parent_path()) created_.insert(created_.begin(), p);
+  for (fs::path p = output; !p.empty() && !fs::exists(p); p = p.parent_path()) created_.insert(created_.begin(), p);
   std::error_code ec;
   fs::create_directories(parent, ec);
   if (ec)

@@ -17,8 +17,9 @@ class OutputLock {
   // a killed run holds no lock (the kernel drops a dead process's flock), so it never
   // blocks a later run. `command_line` is written into the file for that message.
   OutputLock(const std::filesystem::path& output, const std::string& command_line);
-  // Removes the lock file and releases the lock; parent folders this lock created are
-  // removed again when they are still empty (a run that wrote nothing leaves nothing).
+  // Removes the lock file and releases the lock; the output folder and the parent
+  // folders that did not exist before the lock are removed again when they are still
+  // empty (a run that wrote nothing leaves nothing).
   ~OutputLock();
   OutputLock(const OutputLock&) = delete;
   OutputLock& operator=(const OutputLock&) = delete;
@@ -27,7 +28,7 @@ class OutputLock {
 
  private:
   std::filesystem::path file_;
-  std::vector<std::filesystem::path> created_;  // parent folders made for the lock, innermost last
+  std::vector<std::filesystem::path> created_;  // folders that did not exist before, innermost last
   int fd_ = -1;
 };
 

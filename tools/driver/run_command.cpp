@@ -95,8 +95,10 @@ int run_command(const CommonOptions& options) {
   progress.say("post-processed heat rates, balance, probes and lines");
 
   StagedDirectory staged(out);
-  write_results(c, mesh, solution.temperature, record, lines, staged.path(),
-                record.converged ? "temperature.vtu" : "temperature_unconverged.vtu", options, progress.elapsed());
+  staged.fill([&](const std::filesystem::path& dir) {
+    write_results(c, mesh, solution.temperature, record, lines, dir,
+                  record.converged ? "temperature.vtu" : "temperature_unconverged.vtu", options, progress.elapsed());
+  });
   check_interrupt("before results were put in place; the previous results are unchanged");
   staged.commit();
   if (!options.quiet) print_human_summary(c, record, insulated, out);
