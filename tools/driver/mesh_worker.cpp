@@ -4,6 +4,7 @@
 
 #include <fcntl.h>
 #include <signal.h>
+#include <sys/prctl.h>
 #include <spawn.h>
 #include <sys/wait.h>
 #include <unistd.h>
@@ -253,6 +254,8 @@ Mesh build_mesh_isolated(const MeshRequest& request, bool quiet, bool sandbox) {
 }
 
 int mesh_worker_command(const std::string& request_file, const std::string& mesh_file, bool quiet) {
+  // Go when the driver goes (killed, say): nobody would read this mesh.
+  prctl(PR_SET_PDEATHSIG, SIGKILL);
   try {
     std::ifstream in(request_file);
     MeshRequest request = request_from_json(nlohmann::json::parse(in));

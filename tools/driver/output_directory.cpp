@@ -2,6 +2,7 @@
 // old results are moved aside and removed only after the new ones are in place.
 #include "tools/driver/output_directory.hpp"
 
+#include <stdlib.h>
 #include <unistd.h>
 
 #include <cerrno>
@@ -61,11 +62,17 @@ fs::path checked_output_directory(const fs::path& requested, const std::string& 
                        "replaces its output folder as a whole, which would delete them: " + how_to_choose(source) +
                        " (a new or empty one, or one with earlier results)");
   }
-  // Results are written beside the folder and renamed into place: its parent must be writable.
-  fs::path parent = existing == out ? out.parent_path() : existing;
-  if (access(parent.c_str(), W_OK | X_OK) != 0)
+  // Results are written beside the folder and renamed into place: its parent must take
+  // a new file. Tried for real (and removed at once): permissions alone do not tell, for
+  // root, a read-only or a special file system.
+  const fs::path parent = existing == out ? out.parent_path() : existing;
+  std::string probe = (parent / ".hearth-write-test-XXXXXX").string();
+  const int fd = mkstemp(probe.data());
+  if (fd < 0)
     throw InputError(where + " cannot be written: " + parent.string() + ": " + std::strerror(errno) + "; " +
                      how_to_choose(source));
+  ::close(fd);
+  ::unlink(probe.c_str());
   return out;
 }
 

@@ -17,7 +17,8 @@ namespace hearth {
 // - it, or a folder on the way to it, exists and is not a folder;
 // - it exists, is not empty and holds no hearth result (summary.json, run.json,
 //   mesh.json or study.json): replacing it would delete files hearth did not write;
-// - the nearest folder of it that exists cannot be written.
+// - the nearest folder of it that exists cannot take a new file (tried with a scratch
+//   file, removed at once).
 std::filesystem::path checked_output_directory(const std::filesystem::path& requested, const std::string& source,
                                                const std::vector<std::filesystem::path>& inputs);
 
