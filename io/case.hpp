@@ -140,6 +140,7 @@ struct Case {
   Place geometry_place;
 
   double mesh_size = 0.0;                      // metres
+  Place mesh_size_place;                       // the mesh.size key
   int mesh_order = 1;                          // 1 | 2
   std::map<std::string, double> local_sizes;   // name -> metres
   std::map<std::string, Place> local_size_places;

@@ -530,12 +530,17 @@ void read_geometry_and_mesh(const Reader& reader, const YAML::Node& root, Case& 
     reader.fail(c.geometry_place, "'" + file.value.Scalar() + "' is not a known geometry type; allowed: " +
                                       join(types) + " (Gmsh script, CAD file, or mesh)");
   std::error_code error;
+  if (fs::is_directory(c.geometry_file, error))
+    reader.fail(c.geometry_place, "'" + file.value.Scalar() + "' is a folder (" + c.geometry_file.string() +
+                                      "); give the geometry file inside it");
   if (!fs::is_regular_file(c.geometry_file, error))
     reader.fail(c.geometry_place, "'" + file.value.Scalar() + "' does not exist (looked for " +
                                       c.geometry_file.string() + "); the path is relative to the case file's folder");
 
   const YAML::Node mesh = child(root, "mesh");
   c.mesh_size = to_metres(c.units, value_or_default(mesh, "size", "mesh.size"));
+  const std::optional<Entry> size = find_entry(mesh, "size");
+  c.mesh_size_place = size ? reader.place(size->key, "mesh.size") : Place{reader.file, 0, "mesh.size", ""};
   c.mesh_order = value_or_default(mesh, "order", "mesh.order").as<int>();
   c.mesh_refinements = value_or_default(mesh, "refinements", "mesh.refinements").as<int>();
   if (const std::optional<Entry> local = find_entry(mesh, "local_sizes")) {

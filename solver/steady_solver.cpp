@@ -20,6 +20,19 @@ std::string format(const char* fmt, double a, double b = 0, double c = 0, double
   std::snprintf(buffer, sizeof buffer, fmt, a, b, c, d);
   return buffer;
 }
+// Overflow (input values far beyond physical ones) shows up as NaN or infinity in the
+// solution, the right-hand side or the residual.
+bool all_finite(const std::vector<double>& v) {
+  for (double x : v)
+    if (!std::isfinite(x)) return false;
+  return true;
+}
+
+void mark_not_finite(LinearSolveReport& report) {
+  report.status = SolveStatus::breakdown;
+  report.message = "the numbers overflowed (NaN or infinity in the temperatures or their residual)";
+}
+
 double norm(const std::vector<double>& v) {
   double s = 0.0;
   for (double x : v) s += x * x;
@@ -92,6 +105,8 @@ SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, con
     std::vector<double> x(dofs.n_free(), 0.0);
     solution.linear = linear->solve(b, x);
     solution.linear_iterations = solution.linear.iterations;
+    if (!all_finite(x) || !all_finite(b) || !std::isfinite(solution.linear.relative_residual))
+      mark_not_finite(solution.linear);
     report_linear(say, solution.linear);
     for (std::int32_t r = 0; r < dofs.n_free(); ++r) solution.temperature[dofs.free_nodes[r]] = x[r];
     solution.seconds = seconds_since(t0);
@@ -141,6 +156,8 @@ SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, con
       solution.linear = linear->solve(R, delta);
       solution.linear_iterations += solution.linear.iterations;
     }
+    if (!all_finite(delta) || !all_finite(R) || !std::isfinite(solution.linear.relative_residual))
+      mark_not_finite(solution.linear);
     if (!solution.linear.converged()) break;
     // Backtracking line search on |R| (Armijo with c = 1e-4); the Picard start is taken whole.
     double alpha = 1.0;

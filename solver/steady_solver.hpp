@@ -43,7 +43,8 @@ struct SteadySolution {
 // Solves -div(K(T) grad T) = f with the problem's boundary conditions. Throws
 // std::invalid_argument when the temperature is undetermined (no fixed temperature,
 // convection or radiation anywhere). Non-convergence is reported in the returned value,
-// with the last iterate as the temperature.
+// with the last iterate as the temperature; so are temperatures that overflowed to NaN
+// or infinity (linear.status breakdown, with a message saying so).
 SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, const LinearSolverSettings& settings,
                             const std::function<void(const std::string&)>& progress = {},
                             const NonlinearSettings& nonlinear = {});

@@ -6,7 +6,9 @@
 #include "solver/assembler.hpp"
 #include "solver/point_locator.hpp"
 #include "solver/steady_solver.hpp"
+#include "tools/driver/case_mesh_checks.hpp"
 #include "tools/driver/commands.hpp"
+#include "tools/driver/memory_check.hpp"
 
 namespace hearth {
 
@@ -17,8 +19,9 @@ int check_command(const CommonOptions& options) {
   check_names_against_mesh(c, mesh);
   const ThermalProblem problem = make_problem(c, mesh);
   if (c.analysis_type != "transient") check_determined(c, mesh, problem);  // stored heat sets the level
-  if (!c.probes.empty())  // throws for a probe outside
-    sample_probes(c, PointLocator(mesh), std::vector<double>(mesh.n_nodes(), 0.0));
+  const SolveMemoryEstimate memory = check_solve_memory(c, mesh, problem);
+  if (!c.probes.empty() || !c.lines.empty())  // throws for a probe or a whole line outside
+    check_probes_and_lines(c, mesh, PointLocator(mesh));
 
   double qmin = 1.0;
   for (double q : mesh.tet_quality) qmin = std::min(qmin, q);
@@ -28,7 +31,8 @@ int check_command(const CommonOptions& options) {
   std::printf("geometry: %s\n", c.geometry_file.c_str());
   std::printf("mesh: %zu nodes, %zu elements (%d-node tetrahedra), %zu boundary triangles, min quality %.3f\n",
               mesh.n_nodes(), mesh.n_tets(), mesh.nodes_per_tet(), mesh.n_faces(), qmin);
-  std::printf("unknowns: about %zu\n", mesh.n_nodes());
+  std::printf("unknowns: about %zu; the solve needs about %s of memory (%s)\n", mesh.n_nodes(),
+              memory_text(memory.bytes).c_str(), memory.linear_solver.c_str());
   std::printf("volumes (%zu):\n", mesh.regions.size());
   std::vector<double> volume(mesh.regions.size(), 0.0);
   std::vector<std::size_t> count(mesh.regions.size(), 0);

@@ -17,6 +17,7 @@
 #include "mesh/geometry_guard.hpp"
 #include "mesh/gmsh_mesher.hpp"
 #include "tools/driver/output_directory.hpp"
+#include "tools/driver/case_mesh_checks.hpp"
 #include "tools/driver/mesh_worker.hpp"
 #include "mesh/interface_split.hpp"
 #include "mesh/mesh_topology.hpp"
@@ -203,6 +204,7 @@ void check_names_against_mesh(const Case& c, const Mesh& mesh) {
       throw InputError(where.str() + ": volume '" + region.name + "' has no material; add '" + region.name +
                        ": <material>' under regions (the geometry's volumes are: " + volumes + ")");
     }
+  check_one_condition_per_face(c, mesh);
 }
 
 ThermalProblem make_problem(const Case& c, const Mesh& mesh) {

@@ -61,8 +61,9 @@ Mesh mesh_case(const Case& c, int threads, const Progress& progress, bool trust_
 void cut_interfaces(const Case& c, Mesh& mesh, const Progress& progress);
 
 // Every region and boundary named in the case exists in the mesh, and every volume has
-// a material; conditions that need an exterior surface are on one. Throws InputError
-// naming the case-file line and listing the names the geometry has.
+// a material; conditions that need an exterior surface are on one; no triangle gets
+// conditions from two names (check_one_condition_per_face). Throws InputError naming
+// the case-file line and listing the names the geometry has.
 void check_names_against_mesh(const Case& c, const Mesh& mesh);
 
 // InputError (naming the boundaries key) when no surface fixes the temperature level.

@@ -10,10 +10,13 @@
 #include "io/vtu_writer.hpp"
 #include "solver/post_processing.hpp"
 #include "solver/steady_solver.hpp"
+#include "tools/driver/case_mesh_checks.hpp"
 #include "tools/driver/commands.hpp"
 #include "tools/driver/errors.hpp"
+#include "tools/driver/memory_check.hpp"
 #include "tools/driver/output_directory.hpp"
 #include "tools/driver/output_lock.hpp"
+#include "tools/driver/solve_failure.hpp"
 #include "tools/driver/transient_run.hpp"
 
 namespace hearth {
@@ -59,11 +62,12 @@ int run_command(const CommonOptions& options) {
   check_interrupt("after meshing; nothing was written");
   const ThermalProblem problem = make_problem(c, mesh);
   check_determined(c, mesh, problem);
-  // One locator for probes and lines; a probe outside the body is an error before the solve.
+  // One locator for probes and lines; a probe, or a line, outside the body is an error before the solve.
   std::optional<PointLocator> locator;
   if (!c.probes.empty() || !c.lines.empty()) locator.emplace(mesh);
-  if (locator) sample_probes(c, *locator, std::vector<double>(mesh.n_nodes(), 0.0));
+  if (locator) check_probes_and_lines(c, mesh, *locator);
 
+  check_solve_memory(c, mesh, problem);  // refuse what the machine cannot hold, before assembling
   RunRecord record = start_record(c, mesh);
   record.warnings = c.warnings;  // from reading the case (e.g. axes made orthogonal)
   SteadySolution solution;
@@ -104,11 +108,7 @@ int run_command(const CommonOptions& options) {
   if (!options.quiet) print_human_summary(c, record, insulated, out);
   else if (options.warnings_to_terminal)
     for (const auto& w : record.warnings) progress.always("warning: " + w);
-  if (!record.converged)
-    throw SolveFailed("the solve did not converge: " + record.failure + "; results marked unconverged are in " +
-                      out.string() + (solution.nonlinear_message.empty()
-                                          ? ". Try solver.linear: direct, or check for very large conductivity contrasts"
-                                          : ""));
+  if (!record.converged) throw SolveFailed(solve_failure_message(c, solution, out));
   return exit_done;
 }
 
