@@ -9,7 +9,9 @@
 
 #include <Eigen/Eigenvalues>
 #include <cmath>
+#include <cerrno>
 #include <cstdio>
+#include <cstring>
 #include <fstream>
 #include <map>
 #include <optional>
@@ -167,8 +169,11 @@ YAML::Node parse_file(const fs::path& path) {
                      fs::absolute(path, error).string() + ")");
   if (fs::is_directory(path, error))
     throw InputError(file + ": is a folder; give the case file (a .yaml file) inside it");
+  errno = 0;
   std::ifstream stream(path, std::ios::binary);
-  if (!stream) throw InputError(file + ": the case file cannot be opened for reading");
+  if (!stream)
+    throw InputError(file + ": the case file cannot be opened for reading (" +
+                     (errno ? std::strerror(errno) : "unknown reason") + "); check its permissions");
   std::ostringstream text;
   text << stream.rdbuf();
   try {
@@ -536,6 +541,10 @@ void read_geometry_and_mesh(const Reader& reader, const YAML::Node& root, Case& 
   if (!fs::is_regular_file(c.geometry_file, error))
     reader.fail(c.geometry_place, "'" + file.value.Scalar() + "' does not exist (looked for " +
                                       c.geometry_file.string() + "); the path is relative to the case file's folder");
+  errno = 0;
+  if (!std::ifstream(c.geometry_file, std::ios::binary))
+    reader.fail(c.geometry_place, "'" + file.value.Scalar() + "' cannot be opened for reading (" +
+                                      (errno ? std::strerror(errno) : "unknown reason") + "); check its permissions");
 
   const YAML::Node mesh = child(root, "mesh");
   c.mesh_size = to_metres(c.units, value_or_default(mesh, "size", "mesh.size"));

@@ -132,6 +132,12 @@ void load_geometry(GmshSession& session, const MeshRequest& request, GeometryKin
         message += " (" + line + ")";
         break;
       }
+    if (kind == GeometryKind::cad)
+      message += "; the file does not import: check that it is a complete STEP or BREP file (export it again from "
+                 "the CAD program, as a solid)";
+    else if (message.find("syntax error") != std::string::npos)
+      message += "; Gmsh names the line where it noticed the error: look there and at the end of the line before "
+                 "(a missing ';' is found on the next line)";
     throw MeshError(located_message(file, message));
   }
   if (fragmented)
@@ -231,7 +237,9 @@ void apply_sizes(GmshSession& session, const MeshRequest& request, const GmshArr
   if (!unknown.empty()) {
     std::string names;
     for (const std::string& name : unknown) names += (names.empty() ? "'" : ", '") + name + "'";
-    throw MeshError("local mesh size for " + names + ": no such boundary or region in " + file +
+    const auto origin = request.local_size_origins.find(unknown.front());
+    throw MeshError((origin != request.local_size_origins.end() ? origin->second + ": " : std::string()) +
+                    "local mesh size for " + names + ": no such boundary or region in " + file +
                     "; the boundaries are " + list_names(arrays.boundaries) + "; the regions are " +
                     list_names(arrays.regions));
   }
@@ -415,7 +423,7 @@ int prepare_ready_mesh(GmshSession& session, const MeshRequest& request) {
   return order;
 }
 
-void check_jacobians(const std::string& file, const Mesh& mesh) {
+void check_jacobians(const std::string& file, const Mesh& mesh, bool ready_mesh) {
   const InvalidElements invalid = find_invalid_elements(mesh);
   if (invalid.count == 0) return;
   const std::int32_t* t = mesh.tet(invalid.worst_element);
@@ -427,8 +435,11 @@ void check_jacobians(const std::string& file, const Mesh& mesh) {
                   " tetrahedra have a zero or negative Jacobian; the worst (ratio " + format_number(invalid.worst_ratio) +
                   ") is in region " + region + " at (" + format_number(centre[0], 6) + ", " +
                   format_number(centre[1], 6) + ", " + format_number(centre[2], 6) +
-                  ") m; try a smaller mesh size (or a local size) there" +
-                  (mesh.order == 2 ? ", or order 1" : ""));
+                  ") m; " +
+                  (ready_mesh ? std::string("the mesh file is broken there: mesh the geometry again, or give the "
+                                            "geometry itself (.geo, .step) and let hearth mesh it")
+                              : std::string("try a smaller mesh size (or a local size) there") +
+                                    (mesh.order == 2 ? ", or order 1" : "")));
 }
 
 struct GmshMeshes {
@@ -513,7 +524,7 @@ void finish_mesh(const MeshRequest& request, const std::string& algorithm, Clock
   auto report = [&](const std::string& line) {
     if (request.progress) request.progress(line);
   };
-  check_jacobians(request.geometry_file.string(), mesh);
+  check_jacobians(request.geometry_file.string(), mesh, lower_extension(request.geometry_file) == ".msh");
   mesh.tet_quality = tet_qualities(mesh);
   mesh.unnamed_exterior_faces = count_unnamed_exterior_faces(mesh);
   report("meshing " + request.geometry_file.filename().string() + ": " + std::to_string(mesh.n_nodes()) + " nodes, " +

@@ -17,6 +17,9 @@ struct MeshRequest {
   double size = 0.0;                          // target element size, metres (> 0)
   int order = 1;                              // 1: 4-node tets, 2: 10-node tets
   std::map<std::string, double> local_sizes;  // named boundary or region -> size, metres
+  // Where each local size was given ("case.yaml:7: mesh.local_sizes.anchor"), for
+  // messages about a name the geometry lacks; may be empty.
+  std::map<std::string, std::string> local_size_origins;
   int refinements = 0;                        // uniform splits after meshing (studies)
   int threads = 0;                            // meshing threads; 0: two
   bool renumber = true;                       // reverse Cuthill-McKee for locality

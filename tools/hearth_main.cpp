@@ -27,7 +27,7 @@ void add_common(CLI::App* command, hearth::CommonOptions& options, bool with_out
       ->take_all()
       ->allow_extra_args(false);
   command->add_option("--threads", options.threads, "threads for assembly and post-processing (default: all cores) and meshing (default: 2)")
-      ->check(CLI::PositiveNumber);
+      ->check(CLI::Range(1, 4096));
   command->add_flag("--quiet", options.quiet, "no progress lines; warnings and errors only");
   command->add_flag("--trust-geometry", options.trust_geometry,
                     "hand the geometry script to Gmsh unchecked and outside the sandbox, even if it runs programs or "
@@ -77,6 +77,20 @@ int main(int argc, char** argv) {
   report->add_option("RESULTS_DIR", pending_target);
   report->allow_extras();
 
+  // CLI11 answers an unknown command with "A subcommand is required": name it instead.
+  if (argc >= 2 && argv[1][0] != '-') {
+    std::string commands;
+    bool known = false;
+    for (const CLI::App* sub : app.get_subcommands([](CLI::App*) { return true; })) {
+      known |= sub->get_name() == argv[1];
+      commands += (commands.empty() ? "" : ", ") + sub->get_name();
+    }
+    if (!known) {
+      std::fprintf(stderr, "error: '%s' is not a hearth command; the commands are %s (hearth --help)\n", argv[1],
+                   commands.c_str());
+      return hearth::exit_bad_input;
+    }
+  }
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {

@@ -104,7 +104,7 @@ nlohmann::json request_json(const MeshRequest& r) {
   return {{"geometry_file", r.geometry_file.string()}, {"length_unit", r.length_unit}, {"size", r.size},
           {"order", r.order},  {"local_sizes", r.local_sizes},  {"refinements", r.refinements},
           {"threads", r.threads}, {"renumber", r.renumber},     {"algorithm", r.algorithm},
-          {"trust_geometry", r.trust_geometry}};
+          {"trust_geometry", r.trust_geometry}, {"local_size_origins", r.local_size_origins}};
 }
 
 MeshRequest request_from_json(const nlohmann::json& j) {
@@ -119,6 +119,7 @@ MeshRequest request_from_json(const nlohmann::json& j) {
   r.renumber = j.at("renumber").get<bool>();
   r.algorithm = j.at("algorithm").get<std::string>();
   r.trust_geometry = j.at("trust_geometry").get<bool>();
+  r.local_size_origins = j.at("local_size_origins").get<std::map<std::string, std::string>>();
   return r;
 }
 

@@ -136,6 +136,7 @@ Mesh mesh_case(const Case& c, int threads, const Progress& progress, bool trust_
   request.size = c.mesh_size;
   request.order = c.mesh_order;
   request.local_sizes = c.local_sizes;
+  for (const auto& [name, place] : c.local_size_places) request.local_size_origins[name] = place.str();
   request.refinements = c.mesh_refinements;
   request.threads = threads;
   request.progress = [&progress](const std::string& line) { progress.say(line); };
@@ -187,7 +188,7 @@ void check_names_against_mesh(const Case& c, const Mesh& mesh) {
                        "'; its surfaces are: " + surfaces);
   for (const auto& name : c.touch_surfaces)
     if (index_of(mesh.boundaries, name) < 0)
-      throw InputError(c.safety_place.str() + ".touch_surfaces: the geometry has no surface named '" + name +
+      throw InputError(c.safety_place.str() + ": the geometry has no surface named '" + name +
                        "'; its surfaces are: " + surfaces);
   const std::vector<bool> internal = internal_boundaries(mesh);
   for (std::size_t b = 0; b < mesh.boundaries.size(); ++b) {
