@@ -82,6 +82,36 @@ TET_CASE = BASE.replace("file: wall.geo", "file: tet.msh").replace(
     "  hot: {temperature: 1000}\n  cold: {temperature: 200}\n", "  base: {temperature: 100}\n")
 
 
+# A transient case: the wall heated on one face from 20 degC, cooled on the other.
+TRANSIENT = """\
+title: bad transient input
+units: {length: m, temperature: degC}
+geometry:
+  file: wall.geo
+mesh:
+  size: 0.05
+materials:
+  brick: {conductivity: 1.1, density: 2000, specific_heat: 900}
+regions:
+  wall: brick
+boundaries:
+  hot: {temperature: 1000}
+  cold:
+    convection: {coefficient: 10, ambient: 20}
+analysis:
+  type: transient
+  duration: 3600
+  time_step: 60
+  initial_temperature: 20
+  output_times: [1800, 3600]
+"""
+
+
+def transient(old, new):
+    assert old in TRANSIENT, old
+    return TRANSIENT.replace(old, new, 1)
+
+
 def base(old=None, new=None, append=""):
     text = BASE if old is None else BASE.replace(old, new, 1)
     assert old is None or old in BASE, old
@@ -220,6 +250,33 @@ ROWS = [
         case=base("  hot: {temperature: 1000}\n  cold: {temperature: 200}",
                   "  hot: {heat_flux: 3520}\n  cold: {heat_flux: -3520}"),
         where=["case.yaml:12", "boundaries", "undetermined"], example="heat fluxes only"),
+    # --- transient analysis -------------------------------------------------------------
+    Row("transient-density", "a density that is not positive", case=transient("density: 2000", "density: 0"),
+        where=["case.yaml:8", "materials.brick.density", "> 0"], example="`density: 0`"),
+    Row("transient-capacity-missing", "a transient case without a material's specific heat",
+        case=transient(", specific_heat: 900", ""), where=["case.yaml:8", "specific_heat", "transient"],
+        example="no `specific_heat`"),
+    Row("transient-duration", "a duration that is not positive", case=transient("duration: 3600", "duration: -5"),
+        where=["case.yaml:17", "analysis.duration"], example="`duration: -5`"),
+    Row("transient-step", "a first time step longer than the run", case=transient("time_step: 60", "time_step: 7200"),
+        where=["case.yaml:18", "analysis.time_step", "longer than the duration"], example="`time_step: 7200`"),
+    Row("transient-output-time", "an output time outside the run",
+        case=transient("output_times: [1800, 3600]", "output_times: [1800, 7200]"),
+        where=["case.yaml:20", "analysis.output_times", "7200"], example="`output_times: [1800, 7200]`"),
+    Row("transient-initial-cold", "an initial temperature below absolute zero",
+        case=transient("initial_temperature: 20", "initial_temperature: -300"),
+        where=["case.yaml:19", "analysis.initial_temperature", "below absolute zero"],
+        example="`initial_temperature: -300`"),
+    Row("transient-initial-result", "an initial result folder that does not exist",
+        case=transient("initial_temperature: 20", "initial_temperature: {result: nowhere}"),
+        where=["case.yaml:19", "analysis.initial_temperature.result", "not a folder"],
+        example="`{result: nowhere}`"),
+    Row("transient-time-table", "a table in time that goes back in time",
+        case=transient("ambient: 20}", "ambient: {vs_time: [[0, 20], [100, 30], [50, 40]]}}"),
+        where=["case.yaml:14", "vs_time", "must not decrease"], example="rows at 100 s then 50 s"),
+    Row("steady-time-table", "a table in time in a steady case",
+        case=base("  cold: {temperature: 200}", "  cold:\n    convection: {coefficient: 10, ambient: {vs_time: [[0, 20], [100, 30]]}}"),
+        where=["case.yaml:15", "vs_time", "analysis.type: transient"], example="`ambient: {vs_time: ...}`, steady"),
     # --- names against the geometry -------------------------------------------------------
     Row("region-absent", "a region the geometry does not have", case=base("  wall: brick", "  wall: brick\n  furnace: brick"),
         where=["case.yaml:12", "regions.furnace", "volumes are: wall"], example="`furnace: brick`"),

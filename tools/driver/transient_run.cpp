@@ -16,6 +16,8 @@
 #include "solver/post_processing.hpp"
 #include "solver/transient_solver.hpp"
 #include "tools/driver/errors.hpp"
+#include "tools/driver/case_mesh_checks.hpp"
+#include "tools/driver/memory_check.hpp"
 #include "tools/driver/output_directory.hpp"
 
 namespace hearth {
@@ -28,7 +30,7 @@ std::string fmt(const char* format, double value) { return format_number(format,
 // The mesh: the stored one of the result the run starts from, else a new one.
 Mesh transient_mesh(const Case& c, const CommonOptions& options, const Progress& progress,
                     std::optional<StoredResult>& stored) {
-  if (!c.transient.initial_result) return mesh_case(c, options.threads, progress);
+  if (!c.transient.initial_result) return mesh_case(c, options.threads, progress, options.trust_geometry);
   const std::filesystem::path& folder = *c.transient.initial_result;
   const std::string where = c.transient.initial_place.str() + ".result";
   try {
@@ -326,7 +328,8 @@ int run_transient(const CommonOptions& options, const Case& c, const std::filesy
   const TransientProblem problem = transient_problem(c, mesh);
   std::optional<PointLocator> locator;
   if (!c.probes.empty() || !c.lines.empty()) locator.emplace(mesh);
-  if (locator) sample_probes(c, *locator, std::vector<double>(mesh.n_nodes(), 0.0));  // a probe outside: error now
+  if (locator) check_probes_and_lines(c, mesh, *locator);  // a probe, or a whole line, outside: error now
+  check_solve_memory(c, mesh, problem.base);               // refuse what the machine cannot hold
 
   RunRecord record = start_record(c, mesh);
   record.warnings = c.warnings;
