@@ -142,7 +142,7 @@ int main(int argc, char** argv) {
     const double mesh_seconds = seconds_since(t_mesh);
 
     ThermalProblem problem;
-    problem.regions = {RegionProperties{"unit", 1.0, 1.0}};
+    problem.regions = {RegionProperties{"unit", 1.0, 1.0, std::nullopt}};
     problem.boundaries.resize(mesh.boundaries.size());
     problem.boundaries[0].temperature = 0.0;
     if (newton) {
