@@ -10,7 +10,11 @@
 namespace hearth {
 namespace {
 
-constexpr double round_off = 1e-12;  // relative differences below this are "none"
+// Relative differences below this are "none": solves to the default linear tolerance
+// (relative residual 1e-10) leave differences up to about 1e-11 between meshes that all
+// reproduce the exact field (measured: a quadratic field on 10-node elements, 2 to 117
+// thousand unknowns).
+constexpr double round_off = 1e-10;
 constexpr double max_order = 10.0;
 constexpr int max_iterations = 1000;
 

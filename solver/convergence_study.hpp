@@ -23,7 +23,8 @@ struct StudyLevel {
 // oscillatory: e32/e21 < 0; no order, no extrapolation, no GCI.
 // divergent: the differences do not shrink with refinement as any power p > 0 of h
 //   would make them: e32/e21 <= ln r32 / ln r21 (with equal ratios |e21| >= |e32|).
-// converged_exactly: the differences are round-off (relative 1e-12); GCI 0, no order.
+// converged_exactly: the differences are round-off (relative 1e-10, what linear solves
+//   to hearth's default tolerance resolve); GCI 0, no order.
 // too_few_levels: fewer than three levels, so no observed order. With two levels the
 //   extrapolation and the fine GCI use the supplied formal order and a factor of
 //   safety of 3; with fewer than two, everything is NaN.

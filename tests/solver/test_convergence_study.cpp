@@ -183,6 +183,16 @@ TEST(ConvergenceStudy, IdenticalValuesConvergedExactly) {
   EXPECT_EQ(e.gci_medium, 0.0);     // closed form
 }
 
+// Differences of a few parts in 1e11 are what solves to the default tolerance leave on
+// meshes that all reproduce the exact field (a quadratic field on 10-node elements):
+// converged exactly, not divergent (a project choice of the round-off level, 1e-10).
+TEST(ConvergenceStudy, RoundOffDifferencesAreConvergedExactly) {
+  const ConvergenceEstimate e =
+      estimate_convergence({{0.4, 1, -10.666666666667}, {0.2, 8, -10.666666666667}, {0.1, 64, -10.66666666630}}, 2.0);
+  EXPECT_EQ(e.kind, ConvergenceKind::converged_exactly);
+  EXPECT_EQ(e.gci_fine, 0.0);
+}
+
 // Two levels of phi = 1 + 0.5 h^2 with formal order 2: Fs = 3 (Celik et al. 2008 /
 // Roache, from memory), phi_ext = 1 and GCI = 3 (0.015 / 1.005) / (2^2 - 1) (closed form).
 TEST(ConvergenceStudy, TwoLevelsUseFormalOrderAndSafetyFactorThree) {
