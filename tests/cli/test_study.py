@@ -145,6 +145,14 @@ class Study(unittest.TestCase):
         left = subprocess.run(["pgrep", "-f", out], capture_output=True, text=True)
         self.assertEqual(left.stdout.strip(), "", "no level process may be left")
 
+    def test_a_failing_level_is_reported_with_its_own_message(self):
+        r = H.run_hearth("study", self.case.case, "--out", self.out, "--quiet", "--jobs", "2",
+                         "--set", "probes.far=[5, 5, 5]")
+        self.assertEqual(r.returncode, 1, r.describe())
+        self.assertIn("level 0: --set probes.far: probe 'far'", r.stderr)
+        self.assertIn("lies outside the body", r.stderr)
+        self.assertFalse(os.path.exists(os.path.join(self.out, "study.json")))
+
     def test_bad_study_options_exit_1(self):
         for args in (["--levels", "1"], ["--ratio", "0.9"], ["--quantity", "boundaries.nowhere.heat_rate"],
                      ["--order", "3"], ["--order", "1,1"], ["--jobs", "0"], ["--sizes", "0.03,0.03"]):
