@@ -81,6 +81,16 @@ struct Override {
   std::function<void(const Case&)> check;     // the Case holds the values given
 };
 
+// The overrides that make either case a valid transient one, then `more`.
+std::vector<std::string> with_transient(std::vector<std::string> more) {
+  std::vector<std::string> sets = {"analysis.type=transient", "analysis.duration=600", "analysis.time_step=10",
+                                   "analysis.initial_temperature=20", "materials.steel.density=7800",
+                                   "materials.steel.specific_heat=460", "materials.board.conductivity=0.1",
+                                   "materials.board.density=250", "materials.board.specific_heat=1000"};
+  sets.insert(sets.end(), more.begin(), more.end());
+  return sets;
+}
+
 bool near(double a, double b) { return std::abs(a - b) <= 1e-12 * std::max(1.0, std::abs(b)); }
 
 const std::vector<Override>& overrides() {
@@ -116,9 +126,9 @@ const std::vector<Override>& overrides() {
          EXPECT_TRUE(near(k.typical(270.0 + celsius), 45.0));  // half way: linear between the rows
        }},
       {"materials.*.density", {"materials.steel.density=7850"},
-       [](const Case& c) { EXPECT_TRUE(near(*c.materials.at("steel").density, 7850.0)); }},
+       [](const Case& c) { EXPECT_TRUE(near(c.materials.at("steel").density->value(300.0), 7850.0)); }},
       {"materials.*.specific_heat", {"materials.steel.specific_heat=490"},
-       [](const Case& c) { EXPECT_TRUE(near(*c.materials.at("steel").specific_heat, 490.0)); }},
+       [](const Case& c) { EXPECT_TRUE(near(c.materials.at("steel").specific_heat->value(300.0), 490.0)); }},
       {"materials.*.max_service_temperature", {"materials.steel.max_service_temperature=450"},
        [](const Case& c) { EXPECT_TRUE(near(*c.materials.at("steel").max_service_temperature, 450.0 + celsius)); }},
       {"regions.*", {"regions.shell=board"}, [](const Case& c) { EXPECT_EQ(c.regions.at("shell"), "board"); }},
@@ -158,6 +168,34 @@ const std::vector<Override>& overrides() {
        [](const Case& c) { EXPECT_TRUE(near(*c.transient.initial_temperature, 15.0 + celsius)); }},
       {"analysis.output_times", {"analysis.output_times=[600, 1800, 3600]"}, [](const Case& c) {
          EXPECT_EQ(c.transient.output_times, (std::vector<double>{600, 1800, 3600}));
+       }},
+      {"thresholds.*.probe", with_transient({"probes.tip=[0, 0, 0]", "thresholds.warm.temperature=90", "thresholds.warm.probe=tip"}),
+       [](const Case& c) {
+         ASSERT_EQ(c.thresholds.size(), 1u);
+         EXPECT_EQ(c.thresholds[0].kind, hearth::ThresholdSpec::Kind::probe);
+         EXPECT_EQ(c.thresholds[0].target, "tip");
+       }},
+      {"thresholds.*.region_max", with_transient({"thresholds.warm.temperature=90", "thresholds.warm.region_max=shell"}), [](const Case& c) {
+         ASSERT_EQ(c.thresholds.size(), 1u);
+         EXPECT_EQ(c.thresholds[0].kind, hearth::ThresholdSpec::Kind::region_max);
+         EXPECT_EQ(c.thresholds[0].target, "shell");
+       }},
+      {"thresholds.*.surface_mean", with_transient({"thresholds.warm.temperature=90", "thresholds.warm.surface_mean=hot_face"}), [](const Case& c) {
+         ASSERT_EQ(c.thresholds.size(), 1u);
+         EXPECT_EQ(c.thresholds[0].kind, hearth::ThresholdSpec::Kind::surface_mean);
+         EXPECT_EQ(c.thresholds[0].target, "hot_face");
+       }},
+      {"thresholds.*.temperature", with_transient({"thresholds.warm.region_max=shell", "thresholds.warm.temperature=90"}),
+       [](const Case& c) {
+         ASSERT_EQ(c.thresholds.size(), 1u);
+         EXPECT_TRUE(near(c.thresholds[0].temperature, 90.0 + celsius));
+       }},
+      {"boundaries.*.temperature",
+       with_transient({"boundaries.hot_face.temperature={vs_time: [[0, 20], [300, 700], [600, 900]]}"}),
+       [](const Case& c) {
+         ASSERT_EQ(c.time_varying.size(), 1u);  // a table in time given on the command line
+         EXPECT_EQ(c.time_varying[0].name, "hot_face");
+         EXPECT_EQ(c.time_varying[0].target, hearth::TimeVaryingValue::Target::temperature);
        }},
       {"solver.linear", {"solver.linear=direct"}, [](const Case& c) { EXPECT_EQ(c.solver.linear, "direct"); }},
       {"solver.tolerance", {"solver.tolerance=1e-12"}, [](const Case& c) { EXPECT_TRUE(near(c.solver.tolerance, 1e-12)); }},
