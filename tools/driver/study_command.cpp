@@ -141,7 +141,9 @@ std::vector<Level> plan_levels(const StudyOptions& study, const Case& c, const s
         level.splits = c.mesh_refinements + k;
         o.sets.push_back("mesh.refinements=" + std::to_string(level.splits));
         o.base_mesh = base_mesh.string();
-        level.description = "base mesh split " + std::to_string(level.splits) + " times";
+        level.description = level.splits == 0   ? std::string("base mesh")
+                            : level.splits == 1 ? std::string("base mesh split once")
+                                                : "base mesh split " + std::to_string(level.splits) + " times";
       }
       if (order != c.mesh_order) o.sets.push_back("mesh.order=" + std::to_string(order));
       levels.push_back(std::move(level));
