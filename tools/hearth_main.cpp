@@ -22,7 +22,10 @@ namespace {
 
 void add_common(CLI::App* command, hearth::CommonOptions& options, bool with_out, bool with_run_flags) {
   command->add_option("CASE", options.case_path, "case file (YAML)")->required();
-  command->add_option("--set", options.sets, "override a scalar key by its dotted path, e.g. mesh.size=0.01")
+  command->add_option("--set", options.sets,
+                      "override a value by its dotted path, e.g. mesh.size=0.01 or "
+                      "boundaries.cold_face.convection.coefficient=8; lists as [a, b], tables as "
+                      "{vs_temperature: [[T, v], ...]}")
       ->type_name("KEY=VALUE")
       ->take_all()
       ->allow_extra_args(false);
