@@ -216,12 +216,13 @@ std::string pattern_of(const std::vector<std::string>& parts) {
   return pattern;
 }
 
-// The override's value as YAML: a scalar or a flow list ("[0, 0, 0.1]"); anything
-// that does not parse as one of those is kept as the text it is.
-YAML::Node override_value(const std::string& text) {
+// The override's value as YAML: a scalar or a flow list ("[0, 0, 0.1]"), or a flow map
+// ("{vs_temperature: [[20, 0.06], [400, 0.09]]}") where the key accepts map forms of a
+// number (`forms` in the schema); anything else is kept as the text it is.
+YAML::Node override_value(const std::string& text, bool map_allowed) {
   try {
     YAML::Node value = YAML::Load(text);
-    if (value.IsScalar() || value.IsSequence() || value.IsNull()) return value;
+    if (value.IsScalar() || value.IsSequence() || value.IsNull() || (map_allowed && value.IsMap())) return value;
   } catch (const YAML::Exception&) {
   }
   return YAML::Node(text);
@@ -252,9 +253,9 @@ void apply_override(Reader& reader, YAML::Node& root, const std::string& text) {
     }
     node.reset(node[parts[i]]);
   }
+  const KeySpec* spec = find_key_spec(pattern_of(parts));
   const YAML::Node existing = node[parts.back()];
   if (existing.IsDefined() && existing.IsMap()) {
-    const KeySpec* spec = find_key_spec(pattern_of(parts));
     if (!spec || spec->kind == KeyKind::section || spec->kind == KeyKind::names) {
       std::vector<std::string> names;
       for (const auto& item : existing)
@@ -263,7 +264,7 @@ void apply_override(Reader& reader, YAML::Node& root, const std::string& text) {
                        (names.empty() ? std::string() : ", e.g. " + names.front()));
     }
   }
-  node[parts.back()] = override_value(text.substr(equals + 1));
+  node[parts.back()] = override_value(text.substr(equals + 1), spec && !spec->forms.empty());
   reader.set_by[key] = key;
 }
 
@@ -326,6 +327,9 @@ void check_map(const Reader& reader, const YAML::Node& map, const Place& where,
       }
       if (child->kind == KeyKind::names)
         reader.fail(missing, "required section is missing; give at least one entry (" + child->doc + ")");
+      if (!missing.set_by.empty())  // the section was made by a --set: say which other key it needs
+        reader.fail(missing, missing.key + " is needed too (" + child->doc + ", " + reader.expected(*child) +
+                                 "); add --set " + missing.key + "=VALUE");
       reader.fail(missing, "required key is missing; give " + child->doc + ", " + reader.expected(*child));
     }
   } else if (required && seen.empty()) {

@@ -22,7 +22,10 @@ namespace {
 
 void add_common(CLI::App* command, hearth::CommonOptions& options, bool with_out, bool with_run_flags) {
   command->add_option("CASE", options.case_path, "case file (YAML)")->required();
-  command->add_option("--set", options.sets, "override a scalar key by its dotted path, e.g. mesh.size=0.01")
+  command->add_option("--set", options.sets,
+                      "override a value by its dotted path, e.g. mesh.size=0.01 or "
+                      "boundaries.cold_face.convection.coefficient=8; lists as [a, b], tables as "
+                      "{vs_temperature: [[T, v], ...]}")
       ->type_name("KEY=VALUE")
       ->take_all()
       ->allow_extra_args(false);
@@ -52,6 +55,8 @@ int main(int argc, char** argv) {
   hearth::CommonOptions options;
   auto* run = app.add_subcommand("run", "mesh and solve a case; write temperature.vtu, summary.json, CSV files");
   add_common(run, options, true, true);
+  // Used by hearth study for the levels it makes by splitting one mesh; not for users.
+  run->add_option("--base-mesh", options.base_mesh, "")->group("");
   auto* check = app.add_subcommand("check", "validate the case and its mesh, list names and counts; no solve");
   add_common(check, options, false, false);
   auto* mesh = app.add_subcommand("mesh", "mesh only: mesh.vtu with region and quality, mesh.json");
@@ -65,11 +70,20 @@ int main(int argc, char** argv) {
   add_common(study, options, true, false);
   study->add_option("--levels", study_options.levels, "number of meshes (default 3; 3 or more for an order)")
       ->check(CLI::Range(2, 12));
-  study->add_option("--ratio", study_options.ratio, "mesh.size divided by this from level to level (default 1.5)");
+  study->add_option("--ratio", study_options.ratio,
+                    "mesh.size divided by this from level to level (default 1.5); 2 splits every element of one "
+                    "mesh into eight instead, so that the levels are nested");
   study->add_option("--sizes", study_options.sizes, "explicit mesh sizes instead of --levels/--ratio, e.g. 0.04,0.03,0.02")
       ->delimiter(',');
   study->add_option("--quantity", study_options.quantities,
                     "also follow this number of summary.json, as a dotted path (e.g. probes.tip.temperature)");
+  study->add_option("--order", study_options.orders,
+                    "element orders to study and compare, e.g. 1,2 (default: mesh.order of the case)")
+      ->delimiter(',')
+      ->check(CLI::IsMember({1, 2}));
+  study->add_option("--jobs", study_options.jobs,
+                    "levels solved at the same time, as memory allows (default 1); each gets its share of the cores")
+      ->check(CLI::Range(1, 64));
 
   // Named in the command-line contract, not built yet: say so plainly (exit 1).
   std::string pending_target;

@@ -9,9 +9,11 @@ namespace hearth {
 struct StudyOptions {
   CommonOptions common;
   int levels = 3;                       // --levels
-  double ratio = 1.5;                   // --ratio: size divided by this from level to level
+  double ratio = 1.5;                   // --ratio: size divided by this from level to level; 2: split
   std::vector<double> sizes;            // --sizes (case length unit); replaces levels and ratio
   std::vector<std::string> quantities;  // --quantity: extra dotted paths into summary.json
+  std::vector<int> orders;              // --order: element orders to compare (empty: the case's)
+  int jobs = 1;                         // --jobs: levels solved at the same time
 };
 
 int run_command(const CommonOptions& options);

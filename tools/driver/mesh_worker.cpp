@@ -22,6 +22,7 @@
 #include "mesh/mesh_error.hpp"
 #include "tools/driver/errors.hpp"
 #include "tools/driver/sandbox.hpp"
+#include "tools/driver/mesh_file.hpp"
 
 extern char** environ;
 
@@ -30,75 +31,6 @@ namespace hearth {
 namespace fs = std::filesystem;
 
 namespace {
-
-// Binary layout: counts as uint64, then raw arrays; strings as length + bytes.
-template <class T>
-void put_vector(std::ofstream& out, const std::vector<T>& v) {
-  const std::uint64_t n = v.size();
-  out.write(reinterpret_cast<const char*>(&n), sizeof n);
-  out.write(reinterpret_cast<const char*>(v.data()), static_cast<std::streamsize>(n * sizeof(T)));
-}
-template <class T>
-void get_vector(std::ifstream& in, std::vector<T>& v) {
-  std::uint64_t n = 0;
-  in.read(reinterpret_cast<char*>(&n), sizeof n);
-  v.resize(n);
-  in.read(reinterpret_cast<char*>(v.data()), static_cast<std::streamsize>(n * sizeof(T)));
-}
-void put_entities(std::ofstream& out, const std::vector<NamedEntity>& entities) {
-  const std::uint64_t n = entities.size();
-  out.write(reinterpret_cast<const char*>(&n), sizeof n);
-  for (const auto& e : entities) {
-    put_vector(out, std::vector<char>(e.name.begin(), e.name.end()));
-    out.write(reinterpret_cast<const char*>(&e.tag), sizeof e.tag);
-  }
-}
-void get_entities(std::ifstream& in, std::vector<NamedEntity>& entities) {
-  std::uint64_t n = 0;
-  in.read(reinterpret_cast<char*>(&n), sizeof n);
-  entities.resize(n);
-  for (auto& e : entities) {
-    std::vector<char> name;
-    get_vector(in, name);
-    e.name.assign(name.begin(), name.end());
-    in.read(reinterpret_cast<char*>(&e.tag), sizeof e.tag);
-  }
-}
-
-void write_mesh(const fs::path& path, const Mesh& m) {
-  std::ofstream out(path, std::ios::binary);
-  out.write(reinterpret_cast<const char*>(&m.order), sizeof m.order);
-  put_vector(out, m.coords);
-  put_vector(out, m.tet_nodes);
-  put_vector(out, m.tet_region);
-  put_vector(out, m.face_nodes);
-  put_vector(out, m.face_boundary);
-  put_vector(out, m.tet_quality);
-  put_entities(out, m.regions);
-  put_entities(out, m.boundaries);
-  const std::uint64_t unnamed = m.unnamed_exterior_faces;
-  out.write(reinterpret_cast<const char*>(&unnamed), sizeof unnamed);
-  if (!out) throw WriteError(write_failure(path, errno) + " (the mesh, in the meshing process's temporary folder)");
-}
-
-Mesh read_mesh(const fs::path& path) {
-  std::ifstream in(path, std::ios::binary);
-  Mesh m;
-  in.read(reinterpret_cast<char*>(&m.order), sizeof m.order);
-  get_vector(in, m.coords);
-  get_vector(in, m.tet_nodes);
-  get_vector(in, m.tet_region);
-  get_vector(in, m.face_nodes);
-  get_vector(in, m.face_boundary);
-  get_vector(in, m.tet_quality);
-  get_entities(in, m.regions);
-  get_entities(in, m.boundaries);
-  std::uint64_t unnamed = 0;
-  in.read(reinterpret_cast<char*>(&unnamed), sizeof unnamed);
-  m.unnamed_exterior_faces = unnamed;
-  if (!in) throw std::runtime_error("cannot read the mesh from the meshing process");
-  return m;
-}
 
 nlohmann::json request_json(const MeshRequest& r) {
   return {{"geometry_file", r.geometry_file.string()}, {"length_unit", r.length_unit}, {"size", r.size},
@@ -232,7 +164,7 @@ Mesh build_mesh_isolated(const MeshRequest& request, bool quiet, bool sandbox) {
         throw MeshError(request.geometry_file.string() +
                         ": the meshing process ended before it made a mesh; a geometry script must not end Gmsh "
                         "(remove an Exit command)");
-      return read_mesh(mesh_file);
+      return read_mesh_file(mesh_file);
     }
     if (end.exited) {
       std::ifstream error(mesh_file.string() + ".error");
@@ -261,7 +193,7 @@ int mesh_worker_command(const std::string& request_file, const std::string& mesh
     std::ifstream in(request_file);
     MeshRequest request = request_from_json(nlohmann::json::parse(in));
     if (!quiet) request.progress = [](const std::string& line) { std::fprintf(stderr, "           %s\n", line.c_str()); };
-    write_mesh(mesh_file, build_mesh(request));
+    write_mesh_file(mesh_file, build_mesh(request));
     return 0;
   } catch (const std::exception& e) {
     std::ofstream(mesh_file + ".error") << e.what();

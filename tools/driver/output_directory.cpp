@@ -18,7 +18,8 @@ namespace fs = std::filesystem;
 namespace {
 
 // Files a hearth run, mesh or study leaves in its output folder.
-constexpr const char* result_markers[] = {"summary.json", "run.json", "mesh.json", "study.json", "level_0"};
+constexpr const char* result_markers[] = {"summary.json", "run.json",       "mesh.json", "study.json",
+                                          "level_0",      "base_mesh.json", "order_1",   "order_2"};
 
 std::string how_to_choose(const std::string& source) {
   return source == "--out" ? "choose another folder with --out" : "choose another folder (output.directory, or --out)";

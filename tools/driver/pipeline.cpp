@@ -62,6 +62,7 @@ std::string input_digest(const Case& c, const CommonOptions& options) {
   mix(file_bytes(c.file));
   mix(file_bytes(c.geometry_file));
   for (const auto& s : options.sets) mix(s);
+  if (!options.base_mesh.empty()) mix(file_bytes(options.base_mesh));
   char text[17];
   std::snprintf(text, sizeof text, "%016llx", static_cast<unsigned long long>(hash));
   return text;
@@ -100,14 +101,17 @@ std::string geometry_digest(const Case& c) {
 }
 
 nlohmann::json run_provenance(const Case& c, const CommonOptions& options, double solve_seconds, double total_seconds) {
-  return {{"hearth_version", HEARTH_VERSION},
-          {"case_file", std::filesystem::absolute(c.file).string()},
-          {"input_digest", input_digest(c, options)},
-          {"geometry_digest", geometry_digest(c)},
-          {"overrides", options.sets},
-          {"command_line", options.command_line},
-          {"threads", omp_get_max_threads()},
-          {"seconds", {{"solve", solve_seconds}, {"total", total_seconds}}}};
+  nlohmann::json provenance = {{"hearth_version", HEARTH_VERSION},
+                               {"case_file", std::filesystem::absolute(c.file).string()},
+                               {"input_digest", input_digest(c, options)},
+                               {"geometry_digest", geometry_digest(c)},
+                               {"overrides", options.sets},
+                               {"command_line", options.command_line},
+                               {"threads", omp_get_max_threads()},
+                               {"seconds", {{"solve", solve_seconds}, {"total", total_seconds}}}};
+  if (!options.base_mesh.empty())  // a study's split level: which mesh it split
+    provenance["base_mesh"] = std::filesystem::absolute(options.base_mesh).string();
+  return provenance;
 }
 
 RunRecord start_record(const Case& c, const Mesh& mesh) {
@@ -129,7 +133,7 @@ Case load_case(const CommonOptions& options, const Progress& progress) {
   return c;
 }
 
-Mesh mesh_case(const Case& c, int threads, const Progress& progress, bool trust_geometry) {
+MeshRequest mesh_request(const Case& c, int threads, const Progress& progress, bool trust_geometry) {
   MeshRequest request;
   request.geometry_file = c.geometry_file;
   request.length_unit = c.units.length;
@@ -144,7 +148,12 @@ Mesh mesh_case(const Case& c, int threads, const Progress& progress, bool trust_
   // Test hook (tests/cli/test_geometry_guard.py): skip the scan but keep the sandbox, to
   // show that the sandbox alone stops a script from writing.
   if (std::getenv("HEARTH_TEST_SANDBOX_WITHOUT_GUARD")) request.trust_geometry = true;
-  Mesh mesh = build_mesh_isolated(request, progress.quiet(), /*sandbox=*/!trust_geometry);
+  return request;
+}
+
+Mesh mesh_case(const Case& c, int threads, const Progress& progress, bool trust_geometry) {
+  Mesh mesh = build_mesh_isolated(mesh_request(c, threads, progress, trust_geometry), progress.quiet(),
+                                  /*sandbox=*/!trust_geometry);
   cut_interfaces(c, mesh, progress);
   return mesh;
 }

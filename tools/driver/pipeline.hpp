@@ -9,6 +9,7 @@
 #include "io/run_record.hpp"
 #include "io/summary_json.hpp"
 #include "mesh/mesh.hpp"
+#include "mesh/mesh_request.hpp"
 #include "solver/linear_solver.hpp"
 #include "solver/point_locator.hpp"
 #include "solver/problem.hpp"
@@ -29,9 +30,13 @@ struct CommonOptions {
   // --trust-geometry: the geometry script is handed to Gmsh unscanned and parsed outside
   // the sandbox (it may then run programs and write files, as Gmsh scripts can).
   bool trust_geometry = false;
+  // A study's split level (hidden option --base-mesh): the mesh is this base mesh (a
+  // mesh file, see mesh_file.hpp) split mesh.refinements times instead of a new mesh.
+  std::string base_mesh;
 };
 
-// A digest of the run's inputs (case file, geometry file, overrides, threads excluded):
+// A digest of the run's inputs (case file, geometry file, overrides, the base mesh of a
+// split level; threads excluded):
 // FNV-1a 64-bit of their bytes, as 16 hex digits. Equal digests: same inputs.
 std::string input_digest(const Case& c, const CommonOptions& options);
 
@@ -51,6 +56,8 @@ nlohmann::json run_provenance(const Case& c, const CommonOptions& options, doubl
 RunRecord start_record(const Case& c, const Mesh& mesh);
 
 Case load_case(const CommonOptions& options, const Progress& progress);
+// What the case asks the mesher for (sizes in metres); `trust_geometry` as below.
+MeshRequest mesh_request(const Case& c, int threads, const Progress& progress, bool trust_geometry = false);
 // Meshes the case's geometry in the worker process: unless `trust_geometry`, a script
 // is first scanned by the geometry guard and the worker runs in the sandbox
 // (tools/driver/sandbox.hpp).

@@ -17,6 +17,7 @@
 #include "tools/driver/output_directory.hpp"
 #include "tools/driver/output_lock.hpp"
 #include "tools/driver/solve_failure.hpp"
+#include "tools/driver/split_mesh.hpp"
 #include "tools/driver/transient_run.hpp"
 
 namespace hearth {
@@ -57,7 +58,8 @@ int run_command(const CommonOptions& options) {
   const std::filesystem::path out = output_directory(c, options);
   const OutputLock lock(out, options.command_line);  // one hearth at a time per folder
   if (c.analysis_type == "transient") return run_transient(options, c, out, progress);
-  const Mesh mesh = mesh_case(c, options.threads, progress, options.trust_geometry);
+  const Mesh mesh = options.base_mesh.empty() ? mesh_case(c, options.threads, progress, options.trust_geometry)
+                                              : split_base_mesh(c, options.base_mesh, progress);
   check_names_against_mesh(c, mesh);
   check_interrupt("after meshing; nothing was written");
   const ThermalProblem problem = make_problem(c, mesh);

@@ -1,5 +1,11 @@
-// hearth study: the case on a sequence of meshes, coarse to fine, with the observed
-// order, Richardson extrapolation and grid convergence index of every quantity.
+// hearth study: the case on a sequence of meshes, coarse to fine, for one or several
+// element orders, with the observed order, Richardson extrapolation and grid
+// convergence index of every quantity. Each level is a `hearth run` of its own
+// (level_runner.hpp), so that levels can be solved side by side without sharing
+// anything; a level already solved with the same inputs is not solved again.
+#include <omp.h>
+
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <fstream>
@@ -9,11 +15,13 @@
 #include "io/atomic_file.hpp"
 #include "io/input_error.hpp"
 #include "io/summary_json.hpp"
-#include "io/svg_plot.hpp"
-#include "solver/convergence_study.hpp"
 #include "tools/driver/commands.hpp"
 #include "tools/driver/errors.hpp"
+#include "tools/driver/level_runner.hpp"
+#include "tools/driver/mesh_file.hpp"
+#include "tools/driver/mesh_worker.hpp"
 #include "tools/driver/output_lock.hpp"
+#include "tools/driver/study_report.hpp"
 
 namespace hearth {
 
@@ -21,33 +29,165 @@ namespace fs = std::filesystem;
 
 namespace {
 
+// --ratio 2 (and no --sizes): the levels are one mesh split 0, 1, 2, ... times.
+enum class LevelsBy { remeshing, splitting };
+
+struct Level {
+  int element_order = 1;
+  int index = 0;            // 0: coarsest of its order
+  CommonOptions options;    // the level's own run: overrides, folder, base mesh, threads
+  std::string label;        // "level 2", "order 2, level 2"
+  std::string description;  // "mesh.size 0.04", "base mesh split 2 times"
+  double size = 0.0;        // remeshing: mesh.size in the case's length unit
+  int splits = 0;           // splitting: times the base mesh is split
+  bool solved = false;      // solved before with the same inputs (resume)
+  double nodes = 0.0;       // once solved: from its summary.json
+};
+
 nlohmann::json read_json(const fs::path& path) {
   std::ifstream in(path);
   return nlohmann::json::parse(in);
 }
 
-// Available memory from /proc/meminfo, bytes (0 when unknown).
-double available_memory() {
-  std::ifstream in("/proc/meminfo");
-  std::string key;
-  double kb = 0;
-  std::string unit;
-  while (in >> key >> kb >> unit)
-    if (key == "MemAvailable:") return kb * 1024.0;
-  return 0.0;
+std::string number_text(double x) {
+  char text[32];
+  std::snprintf(text, sizeof text, "%.10g", x);
+  return text;
 }
 
-std::string file_safe(const std::string& name) {
-  std::string out;
-  for (char c : name) out += (std::isalnum(static_cast<unsigned char>(c)) || c == '-' || c == '_') ? c : '_';
-  return out;
+std::vector<int> study_orders(const StudyOptions& study, const Case& c) {
+  if (study.orders.empty()) return {c.mesh_order};
+  std::vector<int> orders = study.orders;
+  std::sort(orders.begin(), orders.end());
+  if (std::adjacent_find(orders.begin(), orders.end()) != orders.end())
+    throw InputError("--order: name each element order once, e.g. --order 1,2");
+  return orders;
 }
 
-struct Quantity {
-  std::string name;  // dotted path into summary.json
-  std::string unit;
-  std::vector<StudyLevel> levels;
-};
+// mesh.size of each level, coarse to fine, in the case's length unit (remeshing).
+std::vector<double> level_sizes(const StudyOptions& study, const Case& c) {
+  std::vector<double> sizes = study.sizes;
+  if (sizes.empty())
+    for (int k = 0; k < study.levels; ++k)
+      sizes.push_back(c.mesh_size / c.units.metres_per_length() / std::pow(study.ratio, k));
+  for (double s : sizes)
+    if (!(s > 0)) throw InputError("--sizes: every mesh size must be above 0, got " + number_text(s));
+  std::sort(sizes.begin(), sizes.end(), std::greater<double>());
+  if (std::adjacent_find(sizes.begin(), sizes.end()) != sizes.end())
+    throw InputError("--sizes: each size once; the levels must differ");
+  return sizes;
+}
+
+// The base mesh of a split study, dir/base_mesh.bin: 4-node tetrahedra at the case's
+// sizes, not yet cut at interfaces. Made once and kept while the inputs that made it
+// (case file, geometry file, --set) stay the same (dir/base_mesh.json holds their digest).
+fs::path prepare_base_mesh(const Case& c, const CommonOptions& options, const fs::path& dir,
+                           const Progress& progress) {
+  const fs::path mesh_path = dir / "base_mesh.bin", record_path = dir / "base_mesh.json";
+  const std::string digest = input_digest(c, options);
+  if (fs::exists(mesh_path) && fs::exists(record_path) &&
+      read_json(record_path).value("input_digest", "") == digest) {
+    progress.say("base mesh: kept from an earlier study with the same inputs");
+    return mesh_path;
+  }
+  const Progress quiet(true);
+  MeshRequest request = mesh_request(c, options.threads, quiet, options.trust_geometry);
+  request.order = 1;  // split as 4-node tetrahedra; order 2 is added per level
+  request.refinements = 0;
+  const Mesh mesh = build_mesh_isolated(request, true, /*sandbox=*/!options.trust_geometry);
+  if (mesh.order != 1)
+    throw InputError(c.geometry_place.str() + ": the geometry is a mesh of 10-node tetrahedra, and --ratio 2 splits "
+                     "4-node ones; give a mesh of 4-node tetrahedra, or another --ratio to remesh instead");
+  write_atomically(mesh_path, [&](const fs::path& temporary) { write_mesh_file(temporary, mesh); });
+  write_summary(record_path, {{"input_digest", digest},
+                              {"nodes", mesh.n_nodes()},
+                              {"elements", mesh.n_tets()},
+                              {"mesh_size", c.mesh_size / c.units.metres_per_length()},
+                              {"length_unit", c.units.length}});
+  progress.say("base mesh: " + std::to_string(mesh.n_nodes()) + " nodes, " + std::to_string(mesh.n_tets()) +
+               " tets, split for every level");
+  return mesh_path;
+}
+
+std::vector<Level> plan_levels(const StudyOptions& study, const Case& c, const std::vector<int>& orders,
+                               LevelsBy by, const fs::path& dir, const fs::path& base_mesh, int threads) {
+  const double unit = c.units.metres_per_length();
+  const std::vector<double> sizes = by == LevelsBy::remeshing ? level_sizes(study, c) : std::vector<double>();
+  const int count = by == LevelsBy::remeshing ? static_cast<int>(sizes.size()) : study.levels;
+  std::vector<Level> levels;
+  for (int order : orders) {
+    const fs::path order_dir = orders.size() > 1 ? dir / order_folder(order) : dir;
+    for (int k = 0; k < count; ++k) {
+      Level level;
+      level.element_order = order;
+      level.index = k;
+      level.label = (orders.size() > 1 ? "order " + std::to_string(order) + ", level " : "level ") + std::to_string(k);
+      CommonOptions& o = level.options;
+      o = study.common;
+      o.quiet = true;
+      o.summary_only = false;
+      o.warnings_to_terminal = false;  // they stay in each level's summary.json
+      o.threads = threads;
+      o.out = (order_dir / ("level_" + std::to_string(k))).string();
+      if (by == LevelsBy::remeshing) {
+        // Every size of the case scales with the level: the global one and the local ones.
+        level.size = sizes[k];
+        const double scale = sizes[k] / (c.mesh_size / unit);
+        o.sets.push_back("mesh.size=" + number_text(sizes[k]));
+        for (const auto& [name, local] : c.local_sizes)
+          o.sets.push_back("mesh.local_sizes." + name + "=" + number_text(local / unit * scale));
+        level.description = "mesh.size " + number_text(sizes[k]);
+      } else {
+        level.splits = c.mesh_refinements + k;
+        o.sets.push_back("mesh.refinements=" + std::to_string(level.splits));
+        o.base_mesh = base_mesh.string();
+        level.description = level.splits == 0   ? std::string("base mesh")
+                            : level.splits == 1 ? std::string("base mesh split once")
+                                                : "base mesh split " + std::to_string(level.splits) + " times";
+      }
+      if (order != c.mesh_order) o.sets.push_back("mesh.order=" + std::to_string(order));
+      levels.push_back(std::move(level));
+    }
+  }
+  return levels;
+}
+
+// True when the level's folder holds a whole result of the same inputs.
+bool already_solved(const Level& level) {
+  const fs::path out = level.options.out;
+  if (!fs::exists(out / "run.json") || !fs::exists(out / "summary.json")) return false;
+  const Case level_case = load_case(level.options, Progress(true));
+  return read_json(out / "run.json").value("input_digest", "") == input_digest(level_case, level.options);
+}
+
+// The `hearth run` command line of a level, after the program name.
+std::vector<std::string> run_arguments(const Level& level) {
+  const CommonOptions& o = level.options;
+  std::vector<std::string> args = {"run", o.case_path, "--out", o.out, "--quiet"};
+  if (o.threads > 0) args.insert(args.end(), {"--threads", std::to_string(o.threads)});
+  if (o.trust_geometry) args.push_back("--trust-geometry");
+  for (const auto& s : o.sets) args.insert(args.end(), {"--set", s});
+  if (!o.base_mesh.empty()) args.insert(args.end(), {"--base-mesh", o.base_mesh});
+  return args;
+}
+
+// Bytes for the solve (about 1.8 KB per node with 4-node, 2.6 KB with 10-node elements,
+// measured) and the mesher (about 400 B a tetrahedron, some 6 tetrahedra a node).
+double memory_for_nodes(double nodes, int order) { return nodes * (order == 2 ? 2600.0 : 1800.0) + 400.0 * nodes * 6; }
+
+// Nodes a level will have: splitting multiplies the vertices by about 8 (a tetrahedral
+// mesh has some 7 edges per vertex, each gaining a midpoint), and 10-node elements have
+// about 8 nodes per vertex; remeshing scales the finest known level of the same order
+// by the cube of the size ratio. NaN when no level of the order is known yet.
+double estimated_nodes(const std::vector<Level>& levels, std::size_t i, double base_nodes) {
+  const Level& level = levels[i];
+  if (base_nodes > 0)
+    return base_nodes * std::pow(8.0, level.splits) * (level.element_order == 2 ? 8.0 : 1.0);
+  for (std::size_t j = i; j-- > 0;)
+    if (levels[j].element_order == level.element_order && levels[j].nodes > 0)
+      return levels[j].nodes * std::pow(levels[j].size / level.size, 3);
+  return std::nan("");
+}
 
 // The quantities of one level's summary: heat rates, region max and mean, probes.
 std::vector<std::pair<std::string, std::string>> default_quantities(const nlohmann::json& s) {
@@ -74,84 +214,20 @@ const nlohmann::json* find_path(const nlohmann::json& j, const std::string& dott
   return node->is_number() ? node : nullptr;
 }
 
-}  // namespace
-
-int study_command(const StudyOptions& study) {
-  install_interrupt_handlers();
-  const CommonOptions& options = study.common;
-  const Progress progress(options.quiet);
-  const Case c = load_case(options, progress);
-  const fs::path dir = output_directory(c, options);
-  const OutputLock lock(dir, options.command_line);  // one hearth at a time per folder
-  const double unit = c.units.metres_per_length();
-
-  std::vector<double> sizes = study.sizes;  // in the case's length unit
-  if (sizes.empty()) {
-    if (study.levels < 2) throw InputError("--levels: a study needs at least 2 levels (3 or more for an order)");
-    if (!(study.ratio > 1.0)) throw InputError("--ratio: the refinement ratio must be above 1 (1.5 by default)");
-    for (int k = 0; k < study.levels; ++k) sizes.push_back(c.mesh_size / unit / std::pow(study.ratio, k));
-  }
-  std::sort(sizes.begin(), sizes.end(), std::greater<double>());  // coarse to fine
-  fs::create_directories(dir);
-
-  const int formal_order = c.mesh_order + 1;  // L2 / point values; heat rates likewise for smooth fields
-  std::vector<Quantity> quantities;
-  double last_nodes = 0.0;
-  for (std::size_t k = 0; k < sizes.size(); ++k) {
-    CommonOptions level = options;
-    // Every size of the case scales with the level: the global one and the local ones.
-    const double scale = sizes[k] / (c.mesh_size / unit);
-    char set[64];
-    std::snprintf(set, sizeof set, "mesh.size=%.10g", sizes[k]);
-    level.sets.push_back(set);
-    for (const auto& [name, local] : c.local_sizes) {
-      char local_set[256];
-      std::snprintf(local_set, sizeof local_set, "mesh.local_sizes.%s=%.10g", name.c_str(), local / unit * scale);
-      level.sets.push_back(local_set);
-    }
-    level.warnings_to_terminal = false;  // they stay in each level's summary.json
-    level.out = (dir / ("level_" + std::to_string(k))).string();
-    level.quiet = true;
-    level.summary_only = false;
-    const Case level_case = load_case(level, Progress(true));
-    const std::string digest = input_digest(level_case, level);
-    const fs::path level_dir = level.out;
-    bool solved = false;
-    if (fs::exists(level_dir / "run.json") && fs::exists(level_dir / "summary.json")) {
-      const auto run = read_json(level_dir / "run.json");
-      solved = run.value("input_digest", "") == digest;
-    }
-    if (!solved && last_nodes > 0) {  // memory estimate from the level before
-      const double nodes = last_nodes * std::pow(sizes[k - 1] / sizes[k], 3);
-      const double need = nodes * (c.mesh_order == 2 ? 2600.0 : 1800.0) + 400.0 * nodes * 6;  // solve + mesh, bytes
-      const double have = available_memory();
-      if (have > 0 && need > 0.9 * have)
-        throw InputError("level " + std::to_string(k) + " (mesh.size " + std::to_string(sizes[k]) + ") needs about " +
-                         std::to_string(static_cast<long long>(need / 1e9 + 0.5)) + " GB for some " +
-                         std::to_string(static_cast<long long>(nodes)) + " nodes, but " +
-                         std::to_string(static_cast<long long>(have / 1e9)) +
-                         " GB are available; use fewer --levels, a smaller --ratio or a larger mesh.size");
-    }
-    const auto t0 = progress.elapsed();
-    const std::string size_text = std::string(set).substr(std::string("mesh.size=").size());
-    if (solved) {
-      progress.say("level " + std::to_string(k) + ": mesh.size " + size_text + " already solved with these inputs");
-    } else {
-      run_command(level);
-      char seconds[32];
-      std::snprintf(seconds, sizeof seconds, "%.2f", progress.elapsed() - t0);
-      progress.say("level " + std::to_string(k) + ": mesh.size " + size_text + " solved in " + seconds + " s");
-    }
-    check_interrupt("between levels; the finished levels are kept");
-    const auto summary = read_json(level_dir / "summary.json");
+// Every quantity of the levels of one order, read back from their summary.json.
+std::vector<StudyQuantity> collect_quantities(const std::vector<Level>& levels, int order,
+                                              const std::vector<std::string>& extra, double unit) {
+  std::vector<StudyQuantity> quantities;
+  for (const Level& level : levels) {
+    if (level.element_order != order) continue;
+    const auto summary = read_json(fs::path(level.options.out) / "summary.json");
     double volume = 0.0;
     for (auto& [name, r] : summary["regions"].items()) volume += r["volume"].get<double>();
     const double elements = summary["mesh"]["elements"].get<double>();
     const double h = std::cbrt(volume / elements) / unit;  // representative size, case length unit
-    last_nodes = summary["mesh"]["nodes"].get<double>();
     if (quantities.empty()) {
       for (const auto& [name, qunit] : default_quantities(summary)) quantities.push_back({name, qunit, {}});
-      for (const auto& name : study.quantities) quantities.push_back({name, "", {}});
+      for (const auto& name : extra) quantities.push_back({name, "", {}});
     }
     for (auto& q : quantities) {
       const nlohmann::json* value = find_path(summary, q.name);
@@ -161,50 +237,79 @@ int study_command(const StudyOptions& study) {
       q.levels.push_back({h, summary["solve"]["dofs"].get<double>(), value->get<double>()});
     }
   }
+  return quantities;
+}
 
-  // Estimates, files and the table.
-  nlohmann::json out = {{"case_file", c.file.string()}, {"length_unit", c.units.length},
-                        {"temperature_unit", c.units.temperature}, {"formal_order", formal_order},
-                        {"quantities", nlohmann::json::object()}};
-  std::ostringstream csv;
-  csv.precision(12);
-  csv << "quantity,level,size,dofs,value\n";
-  std::printf("\n%-44s %14s %10s %14s %10s %10s  %s\n", "quantity", "finest", "order", "extrapolated", "GCI fine",
-              "ratio", "status");
-  double safety_factor = 1.25;
-  for (const auto& q : quantities) {
-    const ConvergenceEstimate e = estimate_convergence(q.levels, formal_order);
-    safety_factor = e.safety_factor;
-    nlohmann::json entry = {{"unit", q.unit},
-                            {"h", nlohmann::json::array()},
-                            {"dofs", nlohmann::json::array()},
-                            {"values", nlohmann::json::array()},
-                            {"observed_order", e.observed_order},
-                            {"extrapolated", e.extrapolated},
-                            {"gci_fine", e.gci_fine},
-                            {"gci_medium", e.gci_medium},
-                            {"asymptotic_ratio", e.asymptotic_ratio},
-                            {"safety_factor", e.safety_factor},
-                            {"status", e.status}};
-    ConvergencePlot plot{q.name, q.unit, {}, {}, e.extrapolated, e.observed_order, c.units.length};
-    for (std::size_t k = 0; k < q.levels.size(); ++k) {
-      entry["h"].push_back(q.levels[k].h);
-      entry["dofs"].push_back(q.levels[k].dofs);
-      entry["values"].push_back(q.levels[k].value);
-      plot.h.push_back(q.levels[k].h);
-      plot.values.push_back(q.levels[k].value);
-      csv << q.name << ',' << k << ',' << q.levels[k].h << ',' << q.levels[k].dofs << ',' << q.levels[k].value << '\n';
-    }
-    out["quantities"][q.name] = entry;
-    write_convergence_svg(dir / (file_safe(q.name) + ".svg"), plot);
-    std::printf("%-44s %14.6g %10.3g %14.6g %9.3g%% %10.3g  %s\n", q.name.c_str(), q.levels.back().value,
-                e.observed_order, e.extrapolated, 100.0 * e.gci_fine, e.asymptotic_ratio, e.status.c_str());
+}  // namespace
+
+int study_command(const StudyOptions& study) {
+  install_interrupt_handlers();
+  const CommonOptions& options = study.common;
+  const Progress progress(options.quiet);
+  const Case c = load_case(options, progress);
+  const fs::path dir = output_directory(c, options);
+  const OutputLock lock(dir, options.command_line);  // one hearth at a time per folder
+  const std::vector<int> orders = study_orders(study, c);
+  const LevelsBy by = study.sizes.empty() && study.ratio == 2.0 ? LevelsBy::splitting : LevelsBy::remeshing;
+  if (study.sizes.empty()) {
+    if (study.levels < 2) throw InputError("--levels: a study needs at least 2 levels (3 or more for an order)");
+    if (!(study.ratio > 1.0)) throw InputError("--ratio: the refinement ratio must be above 1 (1.5 by default)");
   }
-  write_text_file(dir / "study.csv", csv.str());
-  write_summary(dir / "study.json", out);
-  std::printf("\nlevels in %s (level_0 coarsest); GCI with a factor of safety of %.3g; an engineering estimate of "
-              "the discretisation error only\n",
-              dir.c_str(), safety_factor);
+  // With --jobs K each level gets its share of the cores unless --threads says otherwise.
+  const int threads = options.threads > 0 ? options.threads
+                      : study.jobs > 1    ? std::max(1, omp_get_max_threads() / study.jobs)
+                                          : 0;
+  fs::create_directories(dir);
+  const fs::path base_mesh = by == LevelsBy::splitting ? prepare_base_mesh(c, options, dir, progress) : fs::path();
+  const double base_nodes =
+      by == LevelsBy::splitting ? read_json(dir / "base_mesh.json")["nodes"].get<double>() : 0.0;
+
+  std::vector<Level> levels = plan_levels(study, c, orders, by, dir, base_mesh, threads);
+  std::vector<std::size_t> to_solve;
+  for (std::size_t i = 0; i < levels.size(); ++i) {
+    levels[i].solved = already_solved(levels[i]);
+    if (levels[i].solved) {
+      levels[i].nodes = read_json(fs::path(levels[i].options.out) / "summary.json")["mesh"]["nodes"].get<double>();
+      progress.say(levels[i].label + ": " + levels[i].description + " already solved with these inputs");
+    } else {
+      to_solve.push_back(i);
+    }
+  }
+
+  std::vector<LevelRun> runs;
+  for (std::size_t i : to_solve) runs.push_back({levels[i].label, run_arguments(levels[i])});
+  LevelScheduling scheduling;
+  scheduling.jobs = study.jobs;
+  scheduling.memory_needed = [&](std::size_t r) {
+    const Level& level = levels[to_solve[r]];
+    const double nodes = estimated_nodes(levels, to_solve[r], base_nodes);
+    return MemoryNeed{std::isnan(nodes) ? nodes : memory_for_nodes(nodes, level.element_order),
+                      "some " + number_text(std::round(nodes)) + " nodes (" + level.description + ")"};
+  };
+  scheduling.finished = [&](std::size_t r, double seconds) {
+    Level& level = levels[to_solve[r]];
+    level.nodes = read_json(fs::path(level.options.out) / "summary.json")["mesh"]["nodes"].get<double>();
+    char text[32];
+    std::snprintf(text, sizeof text, "%.2f", seconds);
+    progress.say(level.label + ": " + level.description + " solved in " + text + " s");
+  };
+  run_levels(runs, scheduling);
+
+  std::vector<OrderStudy> studies;
+  std::vector<nlohmann::json> written;
+  for (int order : orders) {
+    OrderStudy s;
+    s.element_order = order;
+    s.dir = orders.size() > 1 ? dir / order_folder(order) : dir;
+    s.levels_by = by == LevelsBy::splitting ? "splitting" : "remeshing";
+    s.quantities = collect_quantities(levels, order, study.quantities, c.units.metres_per_length());
+    written.push_back(write_order_study(c, s, options.command_line, orders.size() > 1));
+    studies.push_back(std::move(s));
+  }
+  if (orders.size() > 1) write_order_comparison(c, dir, studies, written, options.command_line);
+  char seconds[32];
+  std::snprintf(seconds, sizeof seconds, "%.1f", progress.elapsed());
+  progress.say(std::string("study done in ") + seconds + " s");
   return exit_done;
 }
 

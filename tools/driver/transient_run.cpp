@@ -19,6 +19,7 @@
 #include "tools/driver/case_mesh_checks.hpp"
 #include "tools/driver/memory_check.hpp"
 #include "tools/driver/output_directory.hpp"
+#include "tools/driver/split_mesh.hpp"
 
 namespace hearth {
 
@@ -30,7 +31,9 @@ std::string fmt(const char* format, double value) { return format_number(format,
 // The mesh: the stored one of the result the run starts from, else a new one.
 Mesh transient_mesh(const Case& c, const CommonOptions& options, const Progress& progress,
                     std::optional<StoredResult>& stored) {
-  if (!c.transient.initial_result) return mesh_case(c, options.threads, progress, options.trust_geometry);
+  if (!c.transient.initial_result)  // a study's split level splits the study's base mesh
+    return options.base_mesh.empty() ? mesh_case(c, options.threads, progress, options.trust_geometry)
+                                     : split_base_mesh(c, options.base_mesh, progress);
   const std::filesystem::path& folder = *c.transient.initial_result;
   const std::string where = c.transient.initial_place.str() + ".result";
   try {
