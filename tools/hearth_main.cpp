@@ -33,8 +33,11 @@ void add_common(CLI::App* command, hearth::CommonOptions& options, bool with_out
                     "hand the geometry script to Gmsh unchecked and outside the sandbox, even if it runs programs or "
                     "writes files (only for scripts you trust)");
   if (with_out) command->add_option("--out", options.out, "output folder (default: output.directory of the case)");
-  if (with_run_flags)
+  if (with_run_flags) {
     command->add_flag("--summary-only", options.summary_only, "also print summary.json to stdout");
+    command->add_flag("--ascii", options.ascii, "write the VTK files (temperature.vtu, surface.vtp) as ASCII XML, "
+                                                "for reading by eye; larger and slower");
+  }
 }
 
 }  // namespace

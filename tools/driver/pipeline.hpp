@@ -29,6 +29,7 @@ struct CommonOptions {
   // --trust-geometry: the geometry script is handed to Gmsh unscanned and parsed outside
   // the sandbox (it may then run programs and write files, as Gmsh scripts can).
   bool trust_geometry = false;
+  bool ascii = false;             // --ascii: VTK XML files in ASCII, for reading by eye
 };
 
 // A digest of the run's inputs (case file, geometry file, overrides, threads excluded):

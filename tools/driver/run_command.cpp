@@ -6,8 +6,11 @@
 #include <iostream>
 
 #include "io/input_error.hpp"
+#include "io/inputs_json.hpp"
 #include "io/summary_json.hpp"
+#include "io/surface_writer.hpp"
 #include "io/vtu_writer.hpp"
+#include "mesh/body_surface.hpp"
 #include "solver/post_processing.hpp"
 #include "solver/steady_solver.hpp"
 #include "tools/driver/case_mesh_checks.hpp"
@@ -26,11 +29,16 @@ namespace {
 void write_results(const Case& c, const Mesh& mesh, const std::vector<double>& temperature, const RunRecord& record,
                    const std::vector<std::vector<LineSample>>& lines, const std::filesystem::path& dir,
                    const char* vtu_name, const CommonOptions& options, double elapsed_seconds) {
+  const VtkEncoding encoding = options.ascii ? VtkEncoding::ascii : VtkEncoding::binary;
   VtuFields fields;
   fields.temperature = &temperature;
   fields.nodal_flux = &record.results.nodal_flux;
   fields.cell_flux = &record.results.cell_flux;
-  write_vtu(dir / vtu_name, mesh, c.units, fields);
+  fields.title = c.title;
+  write_vtu(dir / vtu_name, mesh, c.units, fields, encoding);
+  write_surface_vtp(dir / "surface.vtp", mesh, body_surface(mesh), c.units,
+                    {&temperature, &record.results.nodal_flux, c.title}, encoding);
+  write_summary(dir / "inputs.json", inputs_json(c));
   for (std::size_t l = 0; l < lines.size(); ++l)
     write_line_csv(dir / ("line_" + c.lines[l].name + ".csv"), lines[l], c.units);
   if (!record.probes.empty()) {

@@ -7,10 +7,13 @@
 #include <optional>
 
 #include "io/input_error.hpp"
+#include "io/inputs_json.hpp"
 #include "io/stored_result.hpp"
 #include "io/summary_json.hpp"
+#include "io/surface_writer.hpp"
 #include "io/time_series_writer.hpp"
 #include "io/vtu_writer.hpp"
+#include "mesh/body_surface.hpp"
 #include "mesh/mesh_quality.hpp"
 #include "solver/assembler.hpp"
 #include "solver/post_processing.hpp"
@@ -365,7 +368,8 @@ int run_transient(const CommonOptions& options, const Case& c, const std::filesy
     fields.nodal_flux = &results.nodal_flux;
     fields.cell_flux = &results.cell_flux;
     fields.time = t;
-    write_vtu(dir / name, mesh, c.units, fields);
+    fields.title = c.title;
+    write_vtu(dir / name, mesh, c.units, fields, options.ascii ? VtkEncoding::ascii : VtkEncoding::binary);
     series.push_back({t, name});
     tr.field_files.push_back(name);
     write_time_series(dir / "temperature.pvd", series);
@@ -463,6 +467,12 @@ int run_transient(const CommonOptions& options, const Case& c, const std::filesy
     const auto lines = sample_lines(c, *locator, solution.temperature, record.warnings);
     write_line_csv(dir / ("line_" + c.lines[l].name + ".csv"), lines[l], c.units);
   }
+  // The outside with the last state's field, and the case as solved.
+  write_surface_vtp(dir / "surface.vtp", mesh, body_surface(mesh), c.units,
+                    {&solution.temperature, record.results.nodal_flux.empty() ? nullptr : &record.results.nodal_flux,
+                     c.title},
+                    options.ascii ? VtkEncoding::ascii : VtkEncoding::binary);
+  write_summary(dir / "inputs.json", inputs_json(c));
   write_summary(dir / "run.json", run_provenance(c, options, solution.seconds, progress.elapsed()));
   const auto summary = summary_json(record, c.units);
   write_summary(dir / "summary.json", summary);  // last: its presence marks a whole result
