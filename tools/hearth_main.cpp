@@ -74,11 +74,13 @@ int main(int argc, char** argv) {
   study->add_option("--quantity", study_options.quantities,
                     "also follow this number of summary.json, as a dotted path (e.g. probes.tip.temperature)");
 
-  // Named in the command-line contract, not built yet: say so plainly (exit 1).
-  std::string pending_target;
-  auto* report = app.add_subcommand("report", "pictures and report of a finished run (not available in this version yet)");
-  report->add_option("RESULTS_DIR", pending_target);
-  report->allow_extras();
+  hearth::ReportOptions report_options;
+  auto* report = app.add_subcommand("report", "pictures, plots and report.html for a finished run or study, written "
+                                              "into its folder (renders off screen; starts Xvfb when no display is set)");
+  report->add_option("RESULTS_DIR", report_options.results_dir, "results folder of hearth run or hearth study")
+      ->required();
+  report->add_flag("--mesh-edges", report_options.mesh_edges, "draw the element edges on the surface pictures");
+  report->add_flag("--quiet", report_options.quiet, "no progress lines; warnings and errors only");
 
   // CLI11 answers an unknown command with "A subcommand is required": name it instead.
   if (argc >= 2 && argv[1][0] != '-') {
@@ -102,18 +104,11 @@ int main(int argc, char** argv) {
   }
   if (options.threads > 0) omp_set_num_threads(options.threads);
   for (int i = 0; i < argc; ++i) options.command_line += (i ? " " : "") + std::string(argv[i]);
-  for (auto* pending : {report})
-    if (*pending) {
-      std::fprintf(stderr,
-                   "error: 'hearth %s' is not available in this version of hearth yet; the results folder holds "
-                   "temperature.vtu for any VTK viewer and summary.json\n",
-                   pending->get_name().c_str());
-      return hearth::exit_bad_input;
-    }
 
   try {
     if (*materials) return hearth::materials_command();
     if (*run) return hearth::run_command(options);
+    if (*report) return hearth::report_command(report_options);
     if (*study) {
       study_options.common = options;
       return hearth::study_command(study_options);
@@ -124,6 +119,9 @@ int main(int argc, char** argv) {
     std::fprintf(stderr, "error: %s\n", e.what());
     return hearth::exit_bad_input;
   } catch (const hearth::MeshError& e) {
+    std::fprintf(stderr, "error: %s\n", e.what());
+    return hearth::exit_bad_input;
+  } catch (const hearth::ReportUnavailable& e) {
     std::fprintf(stderr, "error: %s\n", e.what());
     return hearth::exit_bad_input;
   } catch (const hearth::WriteError& e) {  // disk full, no permission: the user can fix it

@@ -14,7 +14,14 @@ struct StudyOptions {
   std::vector<std::string> quantities;  // --quantity: extra dotted paths into summary.json
 };
 
+struct ReportOptions {
+  std::string results_dir;  // RESULTS_DIR
+  bool mesh_edges = false;  // --mesh-edges
+  bool quiet = false;
+};
+
 int run_command(const CommonOptions& options);
+int report_command(const ReportOptions& options);
 int study_command(const StudyOptions& options);
 int check_command(const CommonOptions& options);
 int mesh_command(const CommonOptions& options);

@@ -9,6 +9,7 @@
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
+#include <ctime>
 #include <set>
 #include <sstream>
 
@@ -107,7 +108,17 @@ nlohmann::json run_provenance(const Case& c, const CommonOptions& options, doubl
           {"overrides", options.sets},
           {"command_line", options.command_line},
           {"threads", omp_get_max_threads()},
-          {"seconds", {{"solve", solve_seconds}, {"total", total_seconds}}}};
+          {"seconds", {{"solve", solve_seconds}, {"total", total_seconds}}},
+          {"finished", utc_now_text()}};
+}
+
+std::string utc_now_text() {
+  const std::time_t now = std::time(nullptr);
+  std::tm utc{};
+  gmtime_r(&now, &utc);
+  char text[40];
+  std::strftime(text, sizeof text, "%Y-%m-%d %H:%M UTC", &utc);
+  return text;
 }
 
 RunRecord start_record(const Case& c, const Mesh& mesh) {

@@ -20,7 +20,9 @@
 #include "tools/driver/output_directory.hpp"
 #include "tools/driver/output_lock.hpp"
 #include "tools/driver/solve_failure.hpp"
+#include "tools/driver/report.hpp"
 #include "tools/driver/transient_run.hpp"
+#include "tools/driver/virtual_display.hpp"
 
 namespace hearth {
 
@@ -63,6 +65,9 @@ int run_command(const CommonOptions& options) {
   const Progress progress(options.quiet);
   const Case c = load_case(options, progress);
   const std::filesystem::path out = output_directory(c, options);
+  const bool report = c.output_report && options.report_allowed;
+  if (std::string why_not; report && !display_possible(why_not))
+    throw ReportUnavailable("output.report is true, but " + why_not + "; or set output.report: false");
   const OutputLock lock(out, options.command_line);  // one hearth at a time per folder
   if (c.analysis_type == "transient") return run_transient(options, c, out, progress);
   const Mesh mesh = mesh_case(c, options.threads, progress, options.trust_geometry);
@@ -116,8 +121,9 @@ int run_command(const CommonOptions& options) {
   if (!options.quiet) print_human_summary(c, record, insulated, out);
   else if (options.warnings_to_terminal)
     for (const auto& w : record.warnings) progress.always("warning: " + w);
+  const int report_status = report ? report_after_run(out, c, progress) : exit_done;
   if (!record.converged) throw SolveFailed(solve_failure_message(c, solution, out));
-  return exit_done;
+  return report_status;
 }
 
 }  // namespace hearth

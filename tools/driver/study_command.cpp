@@ -14,6 +14,8 @@
 #include "tools/driver/commands.hpp"
 #include "tools/driver/errors.hpp"
 #include "tools/driver/output_lock.hpp"
+#include "tools/driver/report.hpp"
+#include "tools/driver/virtual_display.hpp"
 
 namespace hearth {
 
@@ -82,6 +84,8 @@ int study_command(const StudyOptions& study) {
   const Progress progress(options.quiet);
   const Case c = load_case(options, progress);
   const fs::path dir = output_directory(c, options);
+  if (std::string why_not; c.output_report && !display_possible(why_not))
+    throw ReportUnavailable("output.report is true, but " + why_not + "; or set output.report: false");
   const OutputLock lock(dir, options.command_line);  // one hearth at a time per folder
   const double unit = c.units.metres_per_length();
 
@@ -110,6 +114,7 @@ int study_command(const StudyOptions& study) {
       level.sets.push_back(local_set);
     }
     level.warnings_to_terminal = false;  // they stay in each level's summary.json
+    level.report_allowed = false;        // one report for the study, at the end
     level.out = (dir / ("level_" + std::to_string(k))).string();
     level.quiet = true;
     level.summary_only = false;
@@ -205,6 +210,10 @@ int study_command(const StudyOptions& study) {
   std::printf("\nlevels in %s (level_0 coarsest); GCI with a factor of safety of %.3g; an engineering estimate of "
               "the discretisation error only\n",
               dir.c_str(), safety_factor);
+  if (c.output_report) {
+    const ReportOutcome report = make_report(dir, c.report_mesh_edges, progress);
+    progress.say("report: " + report.html.string());
+  }
   return exit_done;
 }
 

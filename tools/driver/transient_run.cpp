@@ -22,6 +22,7 @@
 #include "tools/driver/case_mesh_checks.hpp"
 #include "tools/driver/memory_check.hpp"
 #include "tools/driver/output_directory.hpp"
+#include "tools/driver/report.hpp"
 
 namespace hearth {
 
@@ -484,12 +485,16 @@ int run_transient(const CommonOptions& options, const Case& c, const std::filesy
   } else if (options.warnings_to_terminal) {
     for (const auto& w : record.warnings) progress.always("warning: " + w);
   }
+  // output.report: the report of what was written (not after an interruption: the user
+  // asked to stop).
+  const bool report = c.output_report && options.report_allowed && !solution.interrupted;
+  const int report_status = report ? report_after_run(out, c, progress) : exit_done;
   if (solution.interrupted)
     check_interrupt("at t = " + fmt("%.6g s", solution.time) + "; the time series up to then is in " + out.string());
   if (!record.converged)
     throw SolveFailed("the time integration stopped at t = " + fmt("%.6g s", solution.time) + ": " + solution.failure +
                       "; the results up to then are in " + out.string());
-  return exit_done;
+  return report_status;
 }
 
 }  // namespace hearth
