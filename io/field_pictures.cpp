@@ -368,8 +368,8 @@ std::vector<Picture> render_field_pictures(const FieldGrid& field, const Picture
   Picture p = surface_picture(field, request, outside, iso, whole, false, "isometric view");
   p.file_name = "picture_isometric.png";
   p.heading = "Isometric view";
-  p.caption = "The outside of the body coloured by temperature, seen along a diagonal of its bounding box from "
-              "the side of the hottest point (looking along " + vector_text(iso.direction, 3) +
+  p.caption = "The outside of the body coloured by temperature, seen from above along a diagonal of its bounding "
+              "box, from the side of the hottest point (looking along " + vector_text(iso.direction, 3) +
               "). Dark lines with a light rim mark the body's edges and the borders between regions. The triad "
               "shows the axes; faces seen obliquely are shaded darker." + edges_note;
   pictures.push_back(std::move(p));

@@ -161,8 +161,8 @@ void PictureScene::add_coloured_surface(vtkPolyData* surface, bool straight_on) 
   actor->SetMapper(mapper);
   // Ambient + diffuse = 1: a face lit head-on shows the map's colour unchanged; faces
   // turned away from the light are darker, down to the ambient share.
-  actor->GetProperty()->SetAmbient(straight_on ? 0.35 : 0.7);
-  actor->GetProperty()->SetDiffuse(straight_on ? 0.65 : 0.3);
+  actor->GetProperty()->SetAmbient(straight_on ? 0.35 : 0.8);
+  actor->GetProperty()->SetDiffuse(straight_on ? 0.65 : 0.2);
   actor->GetProperty()->SetSpecular(0.0);
   scene_->AddActor(actor);
   auto light = Ptr<vtkLight>::New();

@@ -72,6 +72,13 @@ const json& at(const json& j, const std::string& key) {
   return it == j.end() ? none : *it;
 }
 
+// A name as one token of a JSON pointer (RFC 6901: '~' as "~0", '/' as "~1").
+std::string token(const std::string& name) {
+  std::string out;
+  for (char c : name) out += c == '~' ? "~0" : c == '/' ? "~1" : std::string(1, c);
+  return out;
+}
+
 // The JSON number at a pointer, if there is one.
 std::optional<double> number_at(const json& j, const std::string& pointer) {
   const json::json_pointer p(pointer);
@@ -295,7 +302,7 @@ struct Page {
     out << "<h2>Temperatures and heat rates</h2>\n";
     std::vector<std::vector<std::string>> rows;
     for (const auto& [name, g] : at(s, "regions").items()) {
-      const std::string material = text_at(r.inputs, "/regions/" + name);
+      const std::string material = text_at(r.inputs, "/regions/" + token(name));
       rows.push_back({esc(name), esc(material), num(number_at(g, "/volume")), num(number_at(g, "/temperature/min")),
                       num(number_at(g, "/temperature/mean")), num(number_at(g, "/temperature/max")),
                       num(number_at(g, "/heat_generated"))});
@@ -374,10 +381,10 @@ struct Page {
       const json& step = h[i];
       std::vector<std::string> row = {num(number_at(step, "/time"))};
       for (const auto& g : regions) {
-        auto v = number_at(step, "/regions/" + g + "/temperature/max");
-        row.push_back(num(v ? v : number_at(step, "/regions/" + g + "/max")));
+        auto v = number_at(step, "/regions/" + token(g) + "/temperature/max");
+        row.push_back(num(v ? v : number_at(step, "/regions/" + token(g) + "/max")));
       }
-      for (const auto& b : boundaries) row.push_back(num(number_at(step, "/boundaries/" + b + "/heat_rate")));
+      for (const auto& b : boundaries) row.push_back(num(number_at(step, "/boundaries/" + token(b) + "/heat_rate")));
       rows.push_back(row);
     }
     std::set<std::size_t> numeric;

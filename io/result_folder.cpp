@@ -7,6 +7,7 @@
 #include <vtkXMLDataParser.h>
 
 #include <algorithm>
+#include <cctype>
 #include <cstdlib>
 #include <fstream>
 #include <sstream>
@@ -120,15 +121,13 @@ std::vector<SeriesStep> read_pvd(const fs::path& path) {
   return steps;
 }
 
-// The file name rule of hearth study's plots: characters other than letters, digits,
-// '-' and '_' become '_'.
+}  // namespace
+
 std::string file_safe(const std::string& name) {
   std::string out;
   for (char c : name) out += (std::isalnum(static_cast<unsigned char>(c)) || c == '-' || c == '_') ? c : '_';
   return out;
 }
-
-}  // namespace
 
 ResultFolder read_result_folder(const fs::path& directory) {
   if (!fs::is_directory(directory))

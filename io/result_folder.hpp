@@ -54,6 +54,10 @@ struct StudyFolder {
   std::vector<std::filesystem::path> plots;  // the study's NAME.svg files, in study.json's order
 };
 
+// A name as hearth puts it into file names: characters other than letters, digits, '-'
+// and '_' become '_' (hearth study's NAME.svg, the report's plot_line_NAME.svg).
+std::string file_safe(const std::string& name);
+
 // Reads a results folder. Throws InputError (what is missing, and what to do) when it
 // is not the folder of a finished hearth run.
 ResultFolder read_result_folder(const std::filesystem::path& directory);

@@ -43,8 +43,8 @@ Vector3 view_up_for(const Vector3& direction) {
 }
 
 ViewDirection isometric_view(const Bounds& b, const Vector3& hottest) {
-  Vector3 side{};
-  for (int k = 0; k < 3; ++k) {
+  Vector3 side{1, 1, 1};  // always from above
+  for (int k = 0; k < 2; ++k) {
     const double centre = (b[2 * k] + b[2 * k + 1]) / 2, extent = b[2 * k + 1] - b[2 * k];
     side[k] = hottest[k] < centre - 1e-9 * extent ? -1.0 : 1.0;
   }

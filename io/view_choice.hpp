@@ -22,8 +22,9 @@ struct ViewDirection {
 // the y axis when the camera looks nearly along z.
 Vector3 view_up_for(const Vector3& direction);
 
-// The isometric view (along a body diagonal, z up) from the octant of the bounding box
-// that holds `hottest`, so that the hot side faces the camera.
+// The isometric view along a diagonal of the bounding box, from above (z up; a view
+// from below reads like a look inside a hollow box), from the quadrant in x and y that
+// holds `hottest`, so that the hot side faces the camera.
 ViewDirection isometric_view(const Bounds& bounds, const Vector3& hottest);
 
 // An exterior named boundary, as its triangles: area (any unit) and outward unit normal.

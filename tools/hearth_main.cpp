@@ -53,7 +53,8 @@ int main(int argc, char** argv) {
   app.set_version_flag("--version", "hearth " HEARTH_VERSION);
   app.require_subcommand(1);
   hearth::CommonOptions options;
-  auto* run = app.add_subcommand("run", "mesh and solve a case; write temperature.vtu, summary.json, CSV files");
+  auto* run = app.add_subcommand("run", "mesh and solve a case; write temperature.vtu, surface.vtp, summary.json, CSV "
+                                        "files (and the report with output.report)");
   add_common(run, options, true, true);
   auto* check = app.add_subcommand("check", "validate the case and its mesh, list names and counts; no solve");
   add_common(check, options, false, false);

@@ -17,15 +17,16 @@ void expect_vector(const Vector3& v, const Vector3& expected) {
 
 const double kThird = 1.0 / std::sqrt(3.0);
 
-TEST(ViewChoice, IsometricViewLooksFromTheHotSideAlongADiagonal) {
+TEST(ViewChoice, IsometricViewLooksFromAboveOnTheHotSideAlongADiagonal) {
   const Bounds box{0, 0.25, 0, 0.1, 0, 0.1};
   // Hot face at x = 0, its hottest node at the face's centre: the camera sits at -x, +y, +z.
   const ViewDirection v = isometric_view(box, {0.0, 0.05, 0.05});
   expect_vector(v.direction, {kThird, -kThird, -kThird});
   EXPECT_NEAR(dot(v.direction, v.view_up), 0.0, 1e-12);
   EXPECT_GT(v.view_up[2], 0.0);  // z up
+  // Hottest at the bottom corner (x max, y min, z min): +x, -y, and still from above.
   const ViewDirection w = isometric_view(box, {0.25, 0.0, 0.0});
-  expect_vector(w.direction, {-kThird, kThird, kThird});
+  expect_vector(w.direction, {-kThird, kThird, -kThird});
 }
 
 TEST(ViewChoice, ViewUpIsZUnlessLookingAlongZ) {

@@ -9,6 +9,7 @@
 #include "io/field_pictures.hpp"
 #include "io/input_error.hpp"
 #include "io/line_profile.hpp"
+#include "io/nice_numbers.hpp"
 #include "io/report_html.hpp"
 #include "io/result_folder.hpp"
 #include "io/result_plots.hpp"
@@ -27,12 +28,6 @@ namespace hearth {
 namespace fs = std::filesystem;
 
 namespace {
-
-std::string file_safe(const std::string& name) {
-  std::string out;
-  for (char c : name) out += (std::isalnum(static_cast<unsigned char>(c)) || c == '-' || c == '_') ? c : '_';
-  return out;
-}
 
 std::string seconds_text(double s) {
   char text[32];
@@ -80,7 +75,7 @@ ReportOutcome make_report(const fs::path& directory, bool mesh_edges, const Prog
     request.surface_file = folder.surface_file;
     request.title = folder.summary.value("title", "");
     if (request.title.empty()) request.title = folder.directory.filename().string();
-    if (folder.field_time) request.time_label = "t = " + std::to_string(static_cast<long long>(*folder.field_time)) + " s";
+    if (folder.field_time) request.time_label = "t = " + short_number(*folder.field_time, 6) + " s";
     request.temperature_unit = temperature_unit;
     request.length_unit = length_unit;
     request.mesh_edges = mesh_edges;
