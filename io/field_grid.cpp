@@ -35,8 +35,8 @@ struct FieldGrid::Impl {
 namespace {
 
 // Among the nodes within a relative 1e-9 of the extreme, the one nearest `centre`.
-Point3 extreme_point(vtkUnstructuredGrid& grid, vtkDataArray& t, double extreme, double span, const Point3& centre) {
-  Point3 best{};
+vtkIdType extreme_node(vtkUnstructuredGrid& grid, vtkDataArray& t, double extreme, double span, const Point3& centre) {
+  vtkIdType best = 0;
   double best_distance = INFINITY;
   const double tolerance = 1e-9 * std::max(span, std::abs(extreme));
   for (vtkIdType i = 0; i < grid.GetNumberOfPoints(); ++i) {
@@ -44,9 +44,15 @@ Point3 extreme_point(vtkUnstructuredGrid& grid, vtkDataArray& t, double extreme,
     double x[3];
     grid.GetPoint(i, x);
     const double d = std::pow(x[0] - centre[0], 2) + std::pow(x[1] - centre[1], 2) + std::pow(x[2] - centre[2], 2);
-    if (d < best_distance) best_distance = d, best = {x[0], x[1], x[2]};
+    if (d < best_distance) best_distance = d, best = i;
   }
   return best;
+}
+
+Point3 point_of(vtkUnstructuredGrid& grid, vtkIdType i) {
+  double x[3];
+  grid.GetPoint(i, x);
+  return {x[0], x[1], x[2]};
 }
 
 }  // namespace
@@ -82,8 +88,16 @@ FieldGrid::FieldGrid(const std::filesystem::path& vtu) : impl_(std::make_unique<
   t_max_ = range[1];
   const auto b = bounds();
   const Point3 centre{(b[0] + b[1]) / 2, (b[2] + b[3]) / 2, (b[4] + b[5]) / 2};
-  hottest_ = extreme_point(*m.grid, *m.temperature, t_max_, t_max_ - t_min_, centre);
-  coldest_ = extreme_point(*m.grid, *m.temperature, t_min_, t_max_ - t_min_, centre);
+  const vtkIdType hottest = extreme_node(*m.grid, *m.temperature, t_max_, t_max_ - t_min_, centre);
+  hottest_ = point_of(*m.grid, hottest);
+  coldest_ = point_of(*m.grid, extreme_node(*m.grid, *m.temperature, t_min_, t_max_ - t_min_, centre));
+  if (m.flux) {
+    for (int d = 0; d < 3; ++d) flux_at_hottest_[d] = m.flux->GetComponent(hottest, d);
+    for (vtkIdType i = 0; i < m.flux->GetNumberOfTuples(); ++i)
+      max_flux_ = std::max(max_flux_, std::sqrt(std::pow(m.flux->GetComponent(i, 0), 2) +
+                                                std::pow(m.flux->GetComponent(i, 1), 2) +
+                                                std::pow(m.flux->GetComponent(i, 2), 2)));
+  }
 
 }
 

@@ -45,6 +45,10 @@ class FieldGrid {
   Point3 hottest_point() const { return hottest_; }
   Point3 coldest_point() const { return coldest_; }
   bool has_heat_flux() const { return has_flux_; }
+  // The nodal heat flux (W/m2) at hottest_point(), and the largest magnitude anywhere;
+  // zero when the file has no heat flux.
+  Point3 heat_flux_at_hottest() const { return flux_at_hottest_; }
+  double max_heat_flux() const { return max_flux_; }
   std::size_t n_points() const;
   std::size_t n_cells() const;
   std::string region_name(int tag) const;  // "region <tag>" when the file does not name it
@@ -57,6 +61,8 @@ class FieldGrid {
   double t_min_ = 0.0, t_max_ = 0.0;
   Point3 hottest_{}, coldest_{};
   bool has_flux_ = false;
+  Point3 flux_at_hottest_{};
+  double max_flux_ = 0.0;
 };
 
 }  // namespace hearth

@@ -399,15 +399,20 @@ std::vector<Picture> render_field_pictures(const FieldGrid& field, const Picture
     pictures.push_back(std::move(q));
   }
 
-  const SectionPlane plane = section_through(field.hottest_point(), field.coldest_point(), field.bounds());
+  // The way heat flows at the hottest point: its nodal heat flux, unless that is next to
+  // nothing (a peak inside the body, where the flux vanishes): then towards the coldest.
+  const Point3 q = field.heat_flux_at_hottest(), hot = field.hottest_point(), cold = field.coldest_point();
+  const bool by_flux = std::sqrt(q[0] * q[0] + q[1] * q[1] + q[2] * q[2]) > 1e-3 * field.max_heat_flux();
+  const Vector3 flow = by_flux ? q : Vector3{cold[0] - hot[0], cold[1] - hot[1], cold[2] - hot[2]};
+  const SectionPlane plane = section_through(hot, flow, field.bounds());
   Picture s = section_picture(field, request, plane);
   s.file_name = "picture_section.png";
   s.heading = "Section through the hottest point";
   s.caption = "The temperature on the plane " + axis_name(plane.normal_axis) + " = " +
               short_number(plane.origin[plane.normal_axis], 5) + " " + L + " through the hottest point " +
-              vector_text(field.hottest_point()) + " " + L + " (cyan dot), normal to the axis most nearly "
-              "perpendicular to the way from the hottest to the coldest point " + vector_text(field.coldest_point()) +
-              " " + L + ". Lines mark the section's outline and the borders between regions.";
+              vector_text(hot) + " " + L + " (cyan dot), normal to the axis most nearly perpendicular to " +
+              (by_flux ? "the heat flux there" : "the way from there to the coldest point " + vector_text(cold) + " " + L) +
+              ". Lines mark the section's outline and the borders between regions.";
   pictures.push_back(std::move(s));
   return pictures;
 }

@@ -124,9 +124,32 @@ std::string table(const std::vector<std::string>& headers, const std::vector<std
   return out.str();
 }
 
-// A property that is a number or {vs_temperature: [[T, v], ...]}.
+// "table in time: 0 s &rarr; 20 °C; ..." for {vs_time: [[t, v], ...]}; `unit` follows each value.
+std::string time_table_text(const json& p, const std::string& unit) {
+  std::string text = "table in time: ";
+  bool first = true;
+  for (const auto& row : at(p, "vs_time")) {
+    text += (first ? "" : "; ") + short_number(row[0].get<double>(), 6) + " s &rarr; " +
+            short_number(row[1].get<double>(), 6) + (unit.empty() ? "" : " " + unit);
+    first = false;
+  }
+  return text + " (linear between rows)";
+}
+
+// A boundary value: "<at> 30 °C" for a number, "<following> a table in time: ..." for a table.
+std::string value_text(const json& v, const std::string& unit, const std::string& at = "",
+                       const std::string& following = "") {
+  const auto join = [](const std::string& a, const std::string& b) { return a.empty() ? b : a + " " + b; };
+  if (v.is_object() && v.contains("vs_time")) return join(following, time_table_text(v, unit));
+  if (v.is_number()) return join(at, short_number(v.get<double>(), 6) + (unit.empty() ? "" : " " + unit));
+  return "&ndash;";
+}
+
+// A property that is a number or {vs_temperature: [[T, v], ...]} (or, for a film
+// coefficient, {vs_time: ...}).
 std::string property_text(const json& p, const std::string& t_symbol) {
   if (p.is_number()) return short_number(p.get<double>(), 6);
+  if (p.is_object() && p.contains("vs_time")) return time_table_text(p, "");
   if (p.is_object() && p.contains("vs_temperature")) {
     std::string text = "table in temperature: ";
     bool first = true;
@@ -167,15 +190,17 @@ std::string conductivity_text(const json& k, const std::string& t_symbol) {
 
 std::string condition_values(const json& b, const std::string& t_symbol) {
   std::vector<std::string> parts;
-  if (b.contains("temperature")) parts.push_back("T = " + num(at(b, "temperature").get<double>()) + " " + t_symbol);
+  if (b.contains("temperature"))
+    parts.push_back("temperature " + value_text(at(b, "temperature"), t_symbol, "held at", "following"));
   if (b.contains("convection"))
     parts.push_back("convection: h = " + property_text(at(at(b, "convection"), "coefficient"), t_symbol) +
-                    " W/(m&sup2;&nbsp;K), fluid at " + num(number_at(b, "/convection/ambient")) + " " + t_symbol);
+                    " W/(m&sup2;&nbsp;K), fluid " +
+                    value_text(at(at(b, "convection"), "ambient"), t_symbol, "at", "temperature following"));
   if (b.contains("radiation"))
-    parts.push_back("radiation: emissivity " + num(number_at(b, "/radiation/emissivity")) + ", surroundings at " +
-                    num(number_at(b, "/radiation/surroundings")) + " " + t_symbol);
+    parts.push_back("radiation: emissivity " + num(number_at(b, "/radiation/emissivity")) + ", surroundings " +
+                    value_text(at(at(b, "radiation"), "surroundings"), t_symbol, "at", "following"));
   if (b.contains("heat_flux"))
-    parts.push_back("heat flux " + num(number_at(b, "/heat_flux")) + " W/m&sup2; into the body");
+    parts.push_back("heat flux into the body " + value_text(at(b, "heat_flux"), "W/m&sup2;", "", "following"));
   std::string text;
   for (const auto& p : parts) text += (text.empty() ? "" : "<br>") + p;
   return text;
@@ -248,7 +273,7 @@ struct Page {
         std::string regions;
         for (const auto& region : at(m, "regions")) regions += (regions.empty() ? "" : ", ") + esc(region.get<std::string>());
         rows.push_back({esc(name), regions.empty() ? "(not used)" : regions, conductivity_text(at(m, "conductivity"), t),
-                        num(number_at(m, "/density")), num(number_at(m, "/specific_heat")),
+                        property_text(at(m, "density"), t), property_text(at(m, "specific_heat"), t),
                         num(number_at(m, "/max_service_temperature")),
                         at(m, "library").is_string() ? "library entry " + esc(at(m, "library").get<std::string>())
                                                  : "case file"});
@@ -256,7 +281,7 @@ struct Page {
       out << "<h3>Materials</h3>\n"
           << table({"material", "regions", "conductivity W/(m&nbsp;K)", "density kg/m&sup3;",
                     "specific heat J/(kg&nbsp;K)", "max. service temperature " + t, "from"},
-                   rows, {3, 4, 5});
+                   rows, {5});
     }
     std::vector<std::vector<std::string>> rows;
     for (const auto& [name, b] : at(s, "boundaries").items()) {
@@ -276,7 +301,7 @@ struct Page {
     if (in_json.is_object() && in_json.contains("heat_sources") && !at(in_json, "heat_sources").empty()) {
       std::vector<std::vector<std::string>> sources;
       for (const auto& [name, q] : at(in_json, "heat_sources").items())
-        sources.push_back({esc(name), q.is_number() ? num(q.get<double>()) : esc(q.dump())});
+        sources.push_back({esc(name), value_text(q, "")});
       out << "<h3>Heat sources</h3>\n" << table({"region", "heat generated W/m&sup3;"}, sources, {1});
     }
   }
@@ -296,6 +321,44 @@ struct Page {
         {"converged", r.converged ? "yes" : "<span class=\"exceeded\">no</span>"},
         {"solve time s", num(number_at(s, "/solve/seconds"), 3)}};
     out << table({"quantity", "value"}, rows, {1});
+    time_integration();
+  }
+
+  bool transient() const { return text_at(s, "/analysis/type") == "transient"; }
+
+  void time_integration() {
+    if (!transient()) return;
+    const json& a = at(s, "analysis");
+    const auto yes_no = [&](const char* key) -> std::string {
+      return at(a, key).is_boolean() ? (at(a, key).get<bool>() ? "yes" : "no") : "&ndash;";
+    };
+    std::vector<std::vector<std::string>> rows = {
+        {"method", esc(text_at(a, "/method")) + (at(a, "adaptive") == true ? ", adaptive steps" : ", fixed steps")},
+        {"tolerance K per step", num(number_at(a, "/tolerance"))},
+        {"duration s", num(number_at(a, "/duration"))},
+        {"time reached s", num(number_at(a, "/end_time"))},
+        {"completed", yes_no("completed")},
+        {"accepted steps", num(number_at(a, "/steps"), 12)},
+        {"steps redone smaller", num(number_at(a, "/rejected_steps"), 12) + " for the error estimate, " +
+                                     num(number_at(a, "/failed_steps"), 12) + " after Newton failed"},
+        {"starting field", esc(text_at(a, "/initial_temperature/from")) + ", " +
+                               num(number_at(a, "/initial_temperature/min")) + " to " +
+                               num(number_at(a, "/initial_temperature/max")) + " " + t},
+        {"field files written", at(a, "fields").is_array() ? std::to_string(at(a, "fields").size()) : "&ndash;"}};
+    out << "<h3>Time integration</h3>\n" << table({"quantity", "value"}, rows, {});
+    const json& thresholds = at(s, "thresholds");
+    if (!thresholds.is_object() || thresholds.empty()) return;
+    std::vector<std::vector<std::string>> crossings;
+    for (const auto& [name, th] : thresholds.items()) {
+      std::string watched;
+      for (const char* kind : {"probe", "region_max", "surface_mean"})
+        if (th.contains(kind)) watched = std::string(kind) + " " + esc(text_at(th, std::string("/") + kind));
+      const auto when = number_at(th, "/first_crossed_time");
+      crossings.push_back({esc(name), watched, num(number_at(th, "/temperature")), num(number_at(th, "/start_value")),
+                           when ? num(when) + " s (" + short_number(*when / 3600, 4) + " h)" : "not reached"});
+    }
+    out << "<h3>Thresholds</h3>\n"
+        << table({"threshold", "watches", "temperature " + t, "at the start " + t, "first crossed"}, crossings, {2, 3});
   }
 
   void regions_and_boundaries() {
@@ -319,13 +382,17 @@ struct Page {
         << table({"boundary", "condition", "area m&sup2;", "heat rate W", "min " + t, "mean " + t, "max " + t}, rows,
                  {2, 3, 4, 5, 6})
         << "<p>Heat rates: positive into the body on outer surfaces; across an internal surface, positive along "
-           "its normal.</p>\n";
+           "its normal." << (transient() ? " Temperatures and heat rates at the last time reached." : "")
+        << "</p>\n";
     const json& e = at(s, "energy_balance");
+    const std::string unit = esc(text_at(e, "/unit", "W"));  // J over a transient run
     out << "<h3>Energy balance</h3>\n"
-        << table({"in through boundaries W", "out through boundaries W", "sources W", "stored W", "relative imbalance"},
+        << table({"in through boundaries " + unit, "out through boundaries " + unit, "sources " + unit,
+                  "stored " + unit, "relative imbalance"},
                  {{num(number_at(e, "/boundary_in")), num(number_at(e, "/boundary_out")), num(number_at(e, "/sources")),
                    num(number_at(e, "/stored")), num(number_at(e, "/relative_imbalance"), 3)}},
                  {0, 1, 2, 3, 4});
+    if (!text_at(e, "/over").empty()) out << "<p>Over " << esc(text_at(e, "/over")) << ".</p>\n";
     if (s.contains("probes") && !at(s, "probes").empty()) {
       rows.clear();
       for (const auto& [name, p] : at(s, "probes").items())

@@ -1,10 +1,6 @@
-// JSON with nlohmann, the PVD collection with VTK's XML parser, CSV by hand (hearth's
-// own plain files: a header row, numbers, no quoting).
+// JSON with nlohmann, the PVD collection with the time-series reader, CSV by hand
+// (hearth's own plain files: a header row, numbers, no quoting).
 #include "io/result_folder.hpp"
-
-#include <vtkSmartPointer.h>
-#include <vtkXMLDataElement.h>
-#include <vtkXMLDataParser.h>
 
 #include <algorithm>
 #include <cctype>
@@ -13,6 +9,7 @@
 #include <sstream>
 
 #include "io/input_error.hpp"
+#include "io/time_series_writer.hpp"
 
 namespace hearth {
 
@@ -99,25 +96,18 @@ ProbeTable read_probes_csv(const fs::path& path) {
 }
 
 std::vector<SeriesStep> read_pvd(const fs::path& path) {
-  auto parser = vtkSmartPointer<vtkXMLDataParser>::New();
-  parser->SetFileName(path.c_str());
-  if (!parser->Parse())
-    throw InputError(path.string() + ": not a readable VTK collection (XML); the file is damaged: run the case again");
-  vtkXMLDataElement* root = parser->GetRootElement();
-  vtkXMLDataElement* collection = root ? root->FindNestedElementWithName("Collection") : nullptr;
-  if (!collection) throw InputError(path.string() + ": has no <Collection>; run the case again");
-  std::vector<SeriesStep> steps;
-  for (int i = 0; i < collection->GetNumberOfNestedElements(); ++i) {
-    vtkXMLDataElement* e = collection->GetNestedElement(i);
-    if (std::string(e->GetName()) != "DataSet") continue;
-    const char* file = e->GetAttribute("file");
-    double time = 0.0;
-    if (!file || !e->GetScalarAttribute("timestep", time))
-      throw InputError(path.string() + ": a <DataSet> lacks its file or timestep attribute; run the case again");
-    const fs::path given(file);
-    steps.push_back({time, given.is_absolute() ? given : path.parent_path() / given});
+  std::vector<TimeSeriesEntry> entries;
+  try {
+    entries = read_time_series(path);
+  } catch (const std::runtime_error& e) {
+    throw InputError(std::string(e.what()) + "; the time series is damaged: run the case again");
   }
-  if (steps.empty()) throw InputError(path.string() + ": lists no time steps; run the case again");
+  if (entries.empty()) throw InputError(path.string() + ": lists no time steps; run the case again");
+  std::vector<SeriesStep> steps;
+  for (const auto& e : entries) {
+    const fs::path given(e.file);
+    steps.push_back({e.time, given.is_absolute() ? given : path.parent_path() / given});
+  }
   return steps;
 }
 

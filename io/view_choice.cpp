@@ -83,8 +83,8 @@ std::optional<BoundaryView> largest_boundary_view(const std::vector<BoundaryPatc
   return BoundaryView{chosen->name, looking_along({-outward[0], -outward[1], -outward[2]})};
 }
 
-SectionPlane section_through(const Vector3& hottest, const Vector3& coldest, const Bounds& b) {
-  Vector3 flow = normalised({coldest[0] - hottest[0], coldest[1] - hottest[1], coldest[2] - hottest[2]});
+SectionPlane section_through(const Vector3& hottest, const Vector3& heat_flow, const Bounds& b) {
+  Vector3 flow = normalised(heat_flow);
   if (!(dot(flow, flow) > 0)) flow = {1, 0, 0};  // a uniform field: any plane shows it
   int axis = 2;
   for (int k = 1; k >= 0; --k) {
@@ -95,6 +95,9 @@ SectionPlane section_through(const Vector3& hottest, const Vector3& coldest, con
   SectionPlane plane;
   plane.origin = hottest;
   plane.normal_axis = axis;
+  const double low = b[2 * axis], high = b[2 * axis + 1], extent = high - low;
+  if (plane.origin[axis] <= low + 1e-6 * extent) plane.origin[axis] = low + 1e-3 * extent;
+  if (plane.origin[axis] >= high - 1e-6 * extent) plane.origin[axis] = high - 1e-3 * extent;
   Vector3 direction{0, 0, 0};
   direction[axis] = -1.0;
   plane.view = looking_along(direction);

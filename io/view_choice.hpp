@@ -49,15 +49,16 @@ struct BoundaryView {
 std::optional<BoundaryView> largest_boundary_view(const std::vector<BoundaryPatch>& patches);
 
 // A plane through the hottest point, normal to the coordinate axis most nearly
-// perpendicular to the line from the hottest to the coldest point (so that the plane
-// contains the way heat flows); ties go to the axis along which the body is thinnest
-// (the larger cut), then to the later axis. The camera looks onto the plane with the
-// image's right pointing along a positive axis.
+// perpendicular to `flow`, the way heat flows there (so that the plane contains it);
+// ties go to the axis along which the body is thinnest (the larger cut), then to the
+// later axis. A plane that would lie on a face of the bounding box (the hottest point on
+// that face) is moved a thousandth of the extent inside, where there is material to cut.
+// The camera looks onto the plane with the image's right pointing along a positive axis.
 struct SectionPlane {
   Vector3 origin{};
   int normal_axis = 2;  // 0 x, 1 y, 2 z
   ViewDirection view;
 };
-SectionPlane section_through(const Vector3& hottest, const Vector3& coldest, const Bounds& bounds);
+SectionPlane section_through(const Vector3& hottest, const Vector3& flow, const Bounds& bounds);
 
 }  // namespace hearth

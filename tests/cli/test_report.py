@@ -84,6 +84,22 @@ lines:
 output: {directory: results, report: true}
 """
 
+# The same wall heating up (a demo of the transient report; densities and heats invented).
+TRANSIENT_CASE = WALL_CASE.replace("""  brick: {conductivity: 1.0, max_service_temperature: 1200}
+  board: {conductivity: 0.2}""", """  brick: {conductivity: 1.0, density: 200, specific_heat: 1000}
+  board: {conductivity: 0.2, density: 30, specific_heat: 1000}""").replace(
+    "cold: {temperature: 100}", "cold: {convection: {coefficient: 10, ambient: 20}}").replace(
+    "output: {directory: results, report: true}", """output: {directory: results, report: true}
+analysis:
+  type: transient
+  duration: 7200
+  time_step: 60
+  initial_temperature: 20
+  output_times: [1800, 3600, 7200]
+safety: {touch_surfaces: [cold], touch_limit: 25}
+thresholds:
+  middle_warm: {probe: middle, temperature: 100}""")
+
 PICTURES = ["picture_isometric.png", "picture_boundary.png", "picture_section.png"]
 
 
@@ -321,7 +337,7 @@ class WallReport(unittest.TestCase):
         rate = self.summary["boundaries"]["hot"]["heat_rate"]
         self.assertAlmostEqual(rate, Q * 0.01, delta=1e-6 * Q)  # closed form: 6.6667 W through 0.01 m2
         self.assertIn("%.6g" % rate, html)
-        self.assertIn("T = 500 \u00b0C", html)  # the condition as solved, with its unit
+        self.assertIn("temperature held at 500 \u00b0C", html)  # the condition as solved, with its unit
         self.assertIn("brick", html)
         self.assertIn(self.summary["hearth_version"], html)
         run = H.read_json(self.path("run.json"))
@@ -476,55 +492,39 @@ class OtherResults(unittest.TestCase):
         report = H.run_hearth("report", out, "--quiet", "--mesh-edges")
         self.assertEqual(report.returncode, 0, report.describe())
 
-    def test_transient_folder_pictures_the_last_step_and_plots_probe_histories(self):
-        # A transient-looking folder made by hand from a steady result: temperature.pvd
-        # listing a uniform first step and the steady field as the last, probes.csv with
-        # five rows, summary.json with a history (names as the transient result files use).
-        out = self.run_wall(os.path.join(self.case.root, "transient"))
-        grid = H.read_vtu(os.path.join(out, "temperature.vtu"))
-        first = vtk.vtkUnstructuredGrid()
-        first.DeepCopy(grid)
-        uniform = first.GetPointData().GetArray("temperature")
-        for i in range(uniform.GetNumberOfTuples()):
-            uniform.SetValue(i, 20.0)
-        for name, data in (("temperature_0000.vtu", first), ("temperature_0001.vtu", grid)):
-            w = vtk.vtkXMLUnstructuredGridWriter()
-            w.SetFileName(os.path.join(out, name))
-            w.SetInputData(data)
-            w.Write()
-        os.remove(os.path.join(out, "temperature.vtu"))
-        H.write_text(os.path.join(out, "temperature.pvd"),
-                     '<?xml version="1.0"?>\n<VTKFile type="Collection" version="0.1">\n<Collection>\n'
-                     '<DataSet timestep="0" file="temperature_0000.vtu"/>\n'
-                     '<DataSet timestep="3600" file="temperature_0001.vtu"/>\n</Collection>\n</VTKFile>\n')
-        rows = ["time_s,middle,spare"] + ["%g,%g,%g" % (t, 20 + 413.33 * t / 3600, 20 + 100 * t / 3600)
-                                          for t in (0, 600, 1200, 2400, 3600)]
-        H.write_text(os.path.join(out, "probes.csv"), "\n".join(rows) + "\n")
-        summary = H.read_json(os.path.join(out, "summary.json"))
-        summary["history"] = [{"time": t, "regions": {"inner": {"temperature": {"max": m}}},
-                               "boundaries": {"hot": {"heat_rate": 6.6667}}}
-                              for t, m in ((0, 20.0), (1800, 400.0), (3600, 500.0))]
-        summary["safety"]["touch"] = {"cold": {"max": 100.0, "limit": 60.0, "exceeded": True,
-                                               "location": [0.2, 0, 0], "first_exceeded_time": 1200.0}}
-        H.write_text(os.path.join(out, "summary.json"), json.dumps(summary))
-        r = H.run_hearth("report", out)
+    def test_transient_run_pictures_its_last_field_and_plots_probe_histories(self):
+        # The wall heated from 20 degC with the hot face held at 500 degC and the cold face
+        # losing heat by convection: the series starts uniform, so only the last field
+        # (t = 7200 s) gives a section that spans the colour map.
+        case = H.CaseDir(TRANSIENT_CASE, {"wall.geo": WALL_GEO})
+        self.addCleanup(case.cleanup)
+        out = os.path.join(case.root, "out")
+        r = H.run_hearth("run", case.case, "--out", out, "--quiet")
         self.assertEqual(r.returncode, 0, r.describe())
-        # The last step (the steady field) is pictured: its section spans the whole map;
-        # the first step, uniform, would be one colour.
+        summary = H.read_json(os.path.join(out, "summary.json"))
+        fields = summary["analysis"]["fields"]
+        self.assertGreater(len(fields), 2)
         px = read_png(os.path.join(out, "picture_section.png"))
         f = map_fractions(px, colour_bar(px), scene(px))
         self.assertLess(np.nanmin(f), 0.03)
         self.assertGreater(np.nanmax(f), 0.97)
         html = H.read_text(os.path.join(out, "report.html"))
-        self.assertIn("temperature_0001.vtu", html)
+        self.assertIn(fields[-1], html)  # "from temperature_NNNN.vtu": the last of the series
         self.assertIn("Transient result", html)
-        self.assertIn("1200 s", html)  # first_exceeded_time in the limits table
+        self.assertIn("<h3>Time integration</h3>", html)
         self.assertIn("<h2>History</h2>", html)
+        self.assertIn("<h3>Thresholds</h3>", html)
+        when = summary["safety"]["touch"]["cold"]["first_exceeded_time"]
+        self.assertIsNotNone(when)
+        self.assertIn("%.6g s" % when, html)  # the touch limit's first crossing, in the limits table
+        self.assertIn("energy_balance", summary)
+        self.assertIn("in through boundaries J", html)  # the run's balance is in joules
+        _, rows = H.read_csv(os.path.join(out, "probes.csv"))
         root = ET.parse(os.path.join(out, "plot_probes.svg")).getroot()
         lines = [l for l in root.iter(SVG + "polyline") if "probe" in l.get("class").split()]
-        self.assertEqual(len(lines), 2)  # one per probe column
-        for line in lines:
-            self.assertEqual(len(line.get("points").split()), 5)  # one point per row of probes.csv
+        self.assertEqual(len(lines), 1)  # one per probe column
+        self.assertEqual(len(lines[0].get("points").split()), len(rows))  # one point per row of probes.csv
+        self.assertGreater(len(rows), 5)
 
     def test_unconverged_run_reports_the_warning_first(self):
         case = H.CaseDir(WALL_CASE.replace("cold: {temperature: 100}",

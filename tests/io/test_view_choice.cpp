@@ -70,19 +70,29 @@ TEST(ViewChoice, BoundaryFacingSeveralWaysIsSeenFromTheWayMostOfItFaces) {
 TEST(ViewChoice, SectionContainsTheFlowAndReadsLeftToRight) {
   // Heat flows along x; y and z are equally perpendicular and the box is as thick in
   // both, so the later axis (z) is the normal; looking along -z, x runs to the right.
-  const SectionPlane cut = section_through({0, 0.05, 0.05}, {0.25, 0.05, 0.05}, {0, 0.25, 0, 0.1, 0, 0.1});
+  const SectionPlane cut = section_through({0, 0.05, 0.05}, {1, 0, 0}, {0, 0.25, 0, 0.1, 0, 0.1});
   EXPECT_EQ(cut.normal_axis, 2);
   expect_vector(cut.view.direction, {0, 0, -1});
   expect_vector(cut.origin, {0, 0.05, 0.05});
   // The thinner axis (y) gives the larger cut; the camera then looks along +y so that
   // x still runs to the right (right = direction x up = +x).
-  const SectionPlane thin = section_through({0, 0.05, 0.1}, {0.25, 0.05, 0.1}, {0, 0.25, 0, 0.1, 0, 0.2});
+  const SectionPlane thin = section_through({0, 0.05, 0.1}, {1, 0, 0}, {0, 0.25, 0, 0.1, 0, 0.2});
   EXPECT_EQ(thin.normal_axis, 1);
   expect_vector(thin.view.direction, {0, 1, 0});
   expect_vector(thin.view.view_up, {0, 0, 1});
   // Flow mostly along z with some x: the normal is y, the axis it has none of.
-  const SectionPlane diagonal = section_through({0, 0, 0}, {0.1, 0, 1}, {0, 1, 0, 1, 0, 1});
+  const SectionPlane diagonal = section_through({0, 0.5, 0}, {0.1, 0, 1}, {0, 1, 0, 1, 0, 1});
   EXPECT_EQ(diagonal.normal_axis, 1);
+}
+
+TEST(ViewChoice, SectionOnAFaceOfTheBoxMovesInside) {
+  // Hottest at the edge y = 0 of a face: the plane y = 0 would only touch the body.
+  const SectionPlane cut = section_through({0, 0.0, 0.05}, {1, 0, 0}, {0, 0.25, 0, 0.1, 0, 0.2});
+  EXPECT_EQ(cut.normal_axis, 1);
+  EXPECT_NEAR(cut.origin[1], 1e-4, 1e-15);  // a thousandth of the 0.1 extent inside
+  const SectionPlane top = section_through({0, 0.05, 0.2}, {1, 0, 0}, {0, 0.25, 0, 0.1, 0, 0.2});
+  EXPECT_EQ(top.normal_axis, 1);
+  EXPECT_NEAR(top.origin[2], 0.2, 1e-15);  // along the plane nothing moves
 }
 
 }  // namespace
