@@ -81,6 +81,7 @@ VirtualDisplay::VirtualDisplay(const std::string& purpose) {
   previous_ = display;
   if (display_opens(display)) {
     name_ = display;
+    hold_ = XOpenDisplay(name_.c_str());  // a client for as long as we render: no server reset meanwhile
     return;
   }
   const std::string xvfb = find_on_path("Xvfb");
@@ -95,7 +96,10 @@ VirtualDisplay::VirtualDisplay(const std::string& purpose) {
   if (log < 0 || ::pipe(ready) != 0) throw ReportUnavailable(std::string("cannot start Xvfb: ") + std::strerror(errno));
   ::fcntl(ready[0], F_SETFD, FD_CLOEXEC);
   const std::string fd_text = std::to_string(ready[1]);
-  std::vector<std::string> args = {xvfb, "-displayfd", fd_text, "-screen", "0", "1920x1200x24", "-nolisten", "tcp"};
+  // -noreset: by default Xvfb resets when its last client leaves, and a connection made
+  // during the reset fails (VTK then aborts the program).
+  std::vector<std::string> args = {xvfb,     "-displayfd", fd_text, "-screen", "0",
+                                   "1920x1200x24", "-nolisten", "tcp",    "-noreset"};
   std::vector<char*> argv;
   for (auto& a : args) argv.push_back(a.data());
   argv.push_back(nullptr);
@@ -143,9 +147,11 @@ VirtualDisplay::VirtualDisplay(const std::string& purpose) {
                             (log_text.empty() ? std::string() : "; it said: " + log_text));
   }
   ::unlink(log_name);
+  hold_ = XOpenDisplay(name_.c_str());
 }
 
 VirtualDisplay::~VirtualDisplay() {
+  if (hold_) XCloseDisplay(static_cast<Display*>(hold_));
   if (server_ > 0) {
     ::kill(server_, SIGTERM);
     ::waitpid(server_, nullptr, 0);

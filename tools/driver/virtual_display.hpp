@@ -26,6 +26,7 @@ class VirtualDisplay {
   std::string previous_;       // DISPLAY before, "" if unset
   bool had_previous_ = false;
   pid_t server_ = -1;
+  void* hold_ = nullptr;       // an open X connection (Display*) kept while in use
 };
 
 // True when a display is usable or Xvfb can be found: a quick check made before a run
