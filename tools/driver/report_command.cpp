@@ -1,6 +1,5 @@
 // hearth report: pictures, plots and report.html for a finished results folder.
 #include <cstdio>
-#include <ctime>
 #include <fstream>
 #include <set>
 
