@@ -25,7 +25,6 @@ namespace hearth {
 struct FieldGrid::Impl {
   vtkSmartPointer<vtkUnstructuredGrid> grid;
   mutable vtkSmartPointer<vtkStaticCellLocator> locator;  // built on the first sample()
-  mutable double reach = 0.0;  // 1e-9 of the body's diagonal
   vtkDataArray* temperature = nullptr;
   vtkDataArray* flux = nullptr;
   vtkDataArray* region = nullptr;
@@ -111,37 +110,47 @@ std::optional<FieldSample> FieldGrid::sample(const Point3& x) const {
     m.locator = vtkSmartPointer<vtkStaticCellLocator>::New();
     m.locator->SetDataSet(m.grid);
     m.locator->BuildLocator();
-    const auto b = bounds();
-    m.reach = 1e-9 * std::sqrt(std::pow(b[1] - b[0], 2) + std::pow(b[3] - b[2], 2) + std::pow(b[5] - b[4], 2));
+    m.grid->BuildLinks();  // point -> elements, for the neighbours below
   }
-  // Of the elements whose boxes hold the point, the one it lies deepest in (largest
-  // smallest barycentric coordinate). VTK's own FindCell takes the first element that
-  // holds the point within its parametric tolerance, which near a face can be the
-  // neighbour across it: the wrong region by up to a thousandth of an element.
-  double point[3] = {x[0], x[1], x[2]};
-  double box[6] = {x[0] - m.reach, x[0] + m.reach, x[1] - m.reach, x[1] + m.reach, x[2] - m.reach, x[2] + m.reach};
-  auto candidates = vtkSmartPointer<vtkIdList>::New();
-  m.locator->FindCellsWithinBounds(box, candidates);
+  double point[3] = {x[0], x[1], x[2]}, pcoords[3], weights[32];
   auto cell = vtkSmartPointer<vtkGenericCell>::New();
-  vtkIdType best = -1;
-  double best_depth = -INFINITY, weights[32], best_weights[32], pcoords[3], closest[3], distance2 = 0;
-  std::vector<vtkIdType> best_points;
-  for (vtkIdType k = 0; k < candidates->GetNumberOfIds(); ++k) {
-    const vtkIdType c = candidates->GetId(k);
-    m.grid->GetCell(c, cell);
-    int sub_id = 0;
-    if (cell->EvaluatePosition(point, closest, sub_id, pcoords, distance2, weights) < 0) continue;
-    const double depth = std::min({1.0 - pcoords[0] - pcoords[1] - pcoords[2], pcoords[0], pcoords[1], pcoords[2]});
-    if (depth <= best_depth) continue;
-    best = c;
-    best_depth = depth;
-    best_points.assign(cell->GetPointIds()->GetPointer(0),
-                       cell->GetPointIds()->GetPointer(0) + cell->GetNumberOfPoints());
-    std::copy(weights, weights + cell->GetNumberOfPoints(), best_weights);
+  const vtkIdType found = m.locator->FindCell(point, 0.0, cell, pcoords, weights);
+  if (found < 0) return std::nullopt;
+  // VTK's FindCell takes the first element that holds the point within its parametric
+  // tolerance, which next to a face can be the neighbour across it: the wrong region,
+  // by up to a thousandth of an element. If the point lies outside the element found,
+  // take the element around it that the point lies deepest in (largest smallest
+  // barycentric coordinate).
+  auto depth_of = [](const double* p) { return std::min({1.0 - p[0] - p[1] - p[2], p[0], p[1], p[2]}); };
+  vtkIdType best = found;
+  double best_depth = depth_of(pcoords), best_weights[32];
+  std::vector<vtkIdType> best_points(cell->GetPointIds()->GetPointer(0),
+                                     cell->GetPointIds()->GetPointer(0) + cell->GetNumberOfPoints());
+  std::copy(weights, weights + cell->GetNumberOfPoints(), best_weights);
+  if (best_depth < 0) {
+    std::vector<vtkIdType> around;
+    auto cells = vtkSmartPointer<vtkIdList>::New();
+    for (vtkIdType p : std::vector<vtkIdType>(best_points)) {
+      m.grid->GetPointCells(p, cells);
+      for (vtkIdType k = 0; k < cells->GetNumberOfIds(); ++k) around.push_back(cells->GetId(k));
+    }
+    std::sort(around.begin(), around.end());
+    around.erase(std::unique(around.begin(), around.end()), around.end());
+    double closest[3], distance2 = 0;
+    for (vtkIdType c : around) {
+      if (c == found) continue;
+      m.grid->GetCell(c, cell);
+      int sub_id = 0;
+      if (cell->EvaluatePosition(point, closest, sub_id, pcoords, distance2, weights) < 0) continue;
+      const double depth = depth_of(pcoords);
+      if (depth <= best_depth) continue;
+      best = c;
+      best_depth = depth;
+      best_points.assign(cell->GetPointIds()->GetPointer(0),
+                         cell->GetPointIds()->GetPointer(0) + cell->GetNumberOfPoints());
+      std::copy(weights, weights + cell->GetNumberOfPoints(), best_weights);
+    }
   }
-  // Inside, or outside the nearest element by at most a millionth in barycentric terms
-  // (a point on the surface, after round-off).
-  if (best < 0 || best_depth < -1e-6) return std::nullopt;
   FieldSample s;
   for (std::size_t k = 0; k < best_points.size(); ++k) {
     const vtkIdType p = best_points[k];

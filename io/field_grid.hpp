@@ -32,8 +32,8 @@ class FieldGrid {
   FieldGrid& operator=(FieldGrid&&) noexcept;
 
   // The field at x, from the element x lies deepest in, or nothing when x lies outside
-  // every element (by more than a millionth of an element in barycentric terms, so that
-  // a point on the surface counts as inside).
+  // every element (a point on the surface counts as inside, within VTK's parametric
+  // tolerance of the element).
   std::optional<FieldSample> sample(const Point3& x) const;
 
   std::array<double, 6> bounds() const;  // xmin xmax ymin ymax zmin zmax
