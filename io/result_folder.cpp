@@ -119,10 +119,14 @@ std::string file_safe(const std::string& name) {
   return out;
 }
 
-ResultFolder read_result_folder(const fs::path& directory) {
+void read_result_folder_exists(const fs::path& directory) {
   if (!fs::is_directory(directory))
     throw InputError(directory.string() + ": no such folder; give the results folder of a hearth run "
                                           "(output.directory of the case, 'results' by default)");
+}
+
+ResultFolder read_result_folder(const fs::path& directory) {
+  read_result_folder_exists(directory);
   ResultFolder f;
   f.directory = fs::absolute(directory).lexically_normal();
   const fs::path summary = f.directory / "summary.json";

@@ -58,6 +58,9 @@ struct StudyFolder {
 // and '_' become '_' (hearth study's NAME.svg, the report's plot_line_NAME.svg).
 std::string file_safe(const std::string& name);
 
+// InputError unless `directory` is a folder (the first check of read_result_folder).
+void read_result_folder_exists(const std::filesystem::path& directory);
+
 // Reads a results folder. Throws InputError (what is missing, and what to do) when it
 // is not the folder of a finished hearth run.
 ResultFolder read_result_folder(const std::filesystem::path& directory);

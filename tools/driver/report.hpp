@@ -28,8 +28,8 @@ ReportOutcome make_report(const std::filesystem::path& directory, bool mesh_edge
 
 // The report of a folder a run has just written (output.report: true), as hearth report
 // makes it. The results stay in place whatever happens; a failure is printed with how to
-// make the report later, and its exit status returned (1 for a missing display or a
-// damaged folder, 3 otherwise). Interrupted passes through.
+// make the report later, and its exit status returned (1 for a missing display, a
+// damaged folder or a failed write, 3 otherwise). Interrupted passes through.
 int report_after_run(const std::filesystem::path& out, const Case& c, const Progress& progress);
 
 }  // namespace hearth

@@ -7,6 +7,7 @@
 #include "io/field_grid.hpp"
 #include "io/field_pictures.hpp"
 #include "io/input_error.hpp"
+#include "io/write_error.hpp"
 #include "io/line_profile.hpp"
 #include "io/nice_numbers.hpp"
 #include "io/report_html.hpp"
@@ -14,6 +15,7 @@
 #include "io/result_plots.hpp"
 #include "tools/driver/commands.hpp"
 #include "tools/driver/errors.hpp"
+#include "tools/driver/output_lock.hpp"
 #include "tools/driver/pipeline.hpp"
 #include "tools/driver/report.hpp"
 #include "tools/driver/virtual_display.hpp"
@@ -140,7 +142,8 @@ int report_after_run(const fs::path& out, const Case& c, const Progress& progres
   } catch (const std::exception& e) {
     std::fprintf(stderr, "error: the report was not made: %s; the results are in %s, and 'hearth report %s' makes "
                          "the report later\n", e.what(), out.c_str(), out.c_str());
-    const bool setup = dynamic_cast<const ReportUnavailable*>(&e) || dynamic_cast<const InputError*>(&e);
+    const bool setup = dynamic_cast<const ReportUnavailable*>(&e) || dynamic_cast<const InputError*>(&e) ||
+                       dynamic_cast<const WriteError*>(&e);
     return setup ? exit_bad_input : exit_internal;
   }
 }
@@ -148,7 +151,10 @@ int report_after_run(const fs::path& out, const Case& c, const Progress& progres
 int report_command(const ReportOptions& options) {
   install_interrupt_handlers();
   const Progress progress(options.quiet);
-  const ReportOutcome outcome = make_report(options.results_dir, options.mesh_edges, progress);
+  const fs::path dir = fs::absolute(options.results_dir).lexically_normal();
+  read_result_folder_exists(dir);
+  const OutputLock lock(dir, "hearth report " + options.results_dir);  // not while a run rewrites it
+  const ReportOutcome outcome = make_report(dir, options.mesh_edges, progress);
   std::uintmax_t total = 0;
   for (const auto& [name, bytes] : outcome.files) total += bytes;
   if (!options.quiet)
