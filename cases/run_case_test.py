@@ -2,7 +2,8 @@
 """Runs one example case as a test: hearth must exit 0, and its summary must show a
 converged solve (a transient run: reaching its end time) and an energy balance closed
 to the solver tolerance (over the whole run for a transient one) (the heat-rate
-method makes the balance exact up to the linear solve; common practice, no source)."""
+method makes the balance exact up to the linear solve; common practice, no source),
+and a case with output.report: true must leave report.html."""
 import json
 import subprocess
 import sys
@@ -28,6 +29,8 @@ else:
             failures.append("the transient run did not reach its end time")
         for name, t in summary.get("thresholds", {}).items():
             print(f"threshold {name}: first crossed at {t['first_crossed_time']} s")
+    if "report: true" in case.read_text() and not (out / "report.html").is_file():
+        failures.append("output.report is true but there is no report.html")
     for name, region in summary["regions"].items():
         print(f"{name}: {region['temperature']['min']:.2f} .. {region['temperature']['max']:.2f} {summary['temperature_unit']}")
     for name, boundary in summary["boundaries"].items():

@@ -170,6 +170,8 @@ struct Case {
   std::vector<LineSpec> lines;
   std::filesystem::path output_directory;  // absolute
   Place output_place;                      // the output.directory key (line 0 for the default)
+  bool output_report = false;              // output.report: make the report after the run
+  bool report_mesh_edges = false;          // output.report_mesh_edges
   // Warnings found while reading ("case.yaml:9: materials.board.conductivity.axis_2: ...");
   // the driver prints them and puts them in summary.json.
   std::vector<std::string> warnings;

@@ -111,6 +111,8 @@ const std::vector<KeySpec> schema_table = {
 
     {"output", K::section, false, "", "", any_value, "", "where results go", "", ""},
     {"output.directory", K::path, false, "results", "", any_value, "", "results folder, relative to this file unless --out is given", "", ""},
+    {"output.report", K::boolean, false, "false", "", any_value, "", "also make the report at the end of the run (pictures, plots and report.html, as hearth report does)", "", ""},
+    {"output.report_mesh_edges", K::boolean, false, "false", "", any_value, "", "draw the element edges on the report's surface pictures", "", ""},
 };
 
 std::string parent_of(const std::string& key) {

@@ -38,7 +38,8 @@ Ptr<vtkDoubleArray> vector_array(const char* name, const std::vector<double>& va
 }
 }  // namespace
 
-void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units& units, const VtuFields& fields) {
+void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units& units, const VtuFields& fields,
+               VtkEncoding encoding) {
   auto grid = Ptr<vtkUnstructuredGrid>::New();
   auto points = Ptr<vtkPoints>::New();
   points->SetDataTypeToDouble();
@@ -78,12 +79,8 @@ void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units&
   }
   grid->GetFieldData()->AddArray(names);
   grid->GetFieldData()->AddArray(tags);
-  auto unit_names = Ptr<vtkStringArray>::New();
-  unit_names->SetName("units");
-  unit_names->InsertNextValue("length=" + units.length);
-  unit_names->InsertNextValue("temperature=" + units.temperature);
-  unit_names->InsertNextValue("heat_flux=W/m2");
-  grid->GetFieldData()->AddArray(unit_names);
+  add_units_field_data(*grid->GetFieldData(), units);
+  if (!fields.title.empty()) add_text_field_data(*grid->GetFieldData(), "title", fields.title);
 
   if (fields.restart_data) {
     // Boundary triangles (node ids into this file's points) and which named boundary each
@@ -152,14 +149,8 @@ void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units&
     auto writer = Ptr<vtkXMLUnstructuredGridWriter>::New();
     writer->SetFileName(temporary.c_str());
     writer->SetInputData(grid);
-    writer->SetDataModeToAppended();
-    writer->EncodeAppendedDataOff();
-    writer->SetCompressorTypeToZLib();
-    writer->SetHeaderTypeToUInt64();
-    if (writer->Write() != 1 || writer->GetErrorCode() != vtkErrorCode::NoError)
-      throw WriteError(write_failure(path, writer->GetErrorCode() == vtkErrorCode::OutOfDiskSpaceError ? ENOSPC
-                                           : errno != 0                                               ? errno
-                                                                                                      : EIO));
+    configure_xml_writer(*writer, encoding);
+    run_xml_writer(*writer, path);
   });
 }
 

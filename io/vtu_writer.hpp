@@ -2,9 +2,11 @@
 #pragma once
 
 #include <filesystem>
+#include <string>
 #include <vector>
 
 #include "io/case.hpp"
+#include "io/vtk_xml_common.hpp"
 #include "mesh/mesh.hpp"
 
 namespace hearth {
@@ -20,12 +22,15 @@ struct VtuFields {
   // (analysis.initial_temperature: {result: ...}): the boundary triangles and their names.
   bool restart_data = true;
   double time = -1.0;                                // s; >= 0: field data TimeValue (transient)
+  std::string title;                                 // field data "title" when not empty
 };
 
 // Writes an unstructured grid of 4-node (VTK_TETRA) or 10-node (VTK_QUADRATIC_TETRA)
 // cells with cell field "region" (the region's tag), field data "region_names" and
-// "region_tags", "units", the boundary triangles ("boundary_faces", "boundary_face_index",
-// "boundary_names", "boundary_tags") and the requested fields. Written to a temporary name, then renamed.
-void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units& units, const VtuFields& fields);
+// "region_tags", "units" (and "title"), the boundary triangles ("boundary_faces",
+// "boundary_face_index", "boundary_names", "boundary_tags") and the requested fields.
+// Written to a temporary name, then renamed.
+void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units& units, const VtuFields& fields,
+               VtkEncoding encoding = VtkEncoding::binary);
 
 }  // namespace hearth

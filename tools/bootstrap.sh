@@ -20,5 +20,5 @@ if [ "${1:-}" = "--test" ]; then
 else
   demo="$here/cases/furnace_wall"
   "$build/tools/hearth" run "$demo/case.yaml"
-  echo "hearth: demo results in $demo/results (open temperature.vtu in a VTK viewer; heat rates in summary.json)"
+  echo "hearth: demo results in $demo/results (report.html in a browser, temperature.vtu in a VTK viewer; heat rates in summary.json)"
 fi

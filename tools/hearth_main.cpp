@@ -36,8 +36,11 @@ void add_common(CLI::App* command, hearth::CommonOptions& options, bool with_out
                     "hand the geometry script to Gmsh unchecked and outside the sandbox, even if it runs programs or "
                     "writes files (only for scripts you trust)");
   if (with_out) command->add_option("--out", options.out, "output folder (default: output.directory of the case)");
-  if (with_run_flags)
+  if (with_run_flags) {
     command->add_flag("--summary-only", options.summary_only, "also print summary.json to stdout");
+    command->add_flag("--ascii", options.ascii, "write the VTK files (temperature.vtu, surface.vtp) as ASCII XML, "
+                                                "for reading by eye; larger and slower");
+  }
 }
 
 }  // namespace
@@ -53,10 +56,15 @@ int main(int argc, char** argv) {
   app.set_version_flag("--version", "hearth " HEARTH_VERSION);
   app.require_subcommand(1);
   hearth::CommonOptions options;
-  auto* run = app.add_subcommand("run", "mesh and solve a case; write temperature.vtu, summary.json, CSV files");
+  auto* run = app.add_subcommand("run", "mesh and solve a case; write temperature.vtu, surface.vtp, summary.json, CSV "
+                                        "files (and the report with output.report)");
   add_common(run, options, true, true);
   // Used by hearth study for the levels it makes by splitting one mesh; not for users.
   run->add_option("--base-mesh", options.base_mesh, "")->group("");
+  // Used by hearth study for its levels: the study makes one report at the end.
+  bool no_report = false;
+  run->add_flag("--no-report", no_report, "")->group("");
+  run->callback([&] { options.report_allowed = !no_report; });
   auto* check = app.add_subcommand("check", "validate the case and its mesh, list names and counts; no solve");
   add_common(check, options, false, false);
   auto* mesh = app.add_subcommand("mesh", "mesh only: mesh.vtu with region and quality, mesh.json");
@@ -85,11 +93,13 @@ int main(int argc, char** argv) {
                     "levels solved at the same time, as memory allows (default 1); each gets its share of the cores")
       ->check(CLI::Range(1, 64));
 
-  // Named in the command-line contract, not built yet: say so plainly (exit 1).
-  std::string pending_target;
-  auto* report = app.add_subcommand("report", "pictures and report of a finished run (not available in this version yet)");
-  report->add_option("RESULTS_DIR", pending_target);
-  report->allow_extras();
+  hearth::ReportOptions report_options;
+  auto* report = app.add_subcommand("report", "pictures, plots and report.html for a finished run or study, written "
+                                              "into its folder (renders off screen; starts Xvfb when no display is set)");
+  report->add_option("RESULTS_DIR", report_options.results_dir, "results folder of hearth run or hearth study")
+      ->required();
+  report->add_flag("--mesh-edges", report_options.mesh_edges, "draw the element edges on the surface pictures");
+  report->add_flag("--quiet", report_options.quiet, "no progress lines; warnings and errors only");
 
   // CLI11 answers an unknown command with "A subcommand is required": name it instead.
   if (argc >= 2 && argv[1][0] != '-') {
@@ -113,18 +123,11 @@ int main(int argc, char** argv) {
   }
   if (options.threads > 0) omp_set_num_threads(options.threads);
   for (int i = 0; i < argc; ++i) options.command_line += (i ? " " : "") + std::string(argv[i]);
-  for (auto* pending : {report})
-    if (*pending) {
-      std::fprintf(stderr,
-                   "error: 'hearth %s' is not available in this version of hearth yet; the results folder holds "
-                   "temperature.vtu for any VTK viewer and summary.json\n",
-                   pending->get_name().c_str());
-      return hearth::exit_bad_input;
-    }
 
   try {
     if (*materials) return hearth::materials_command();
     if (*run) return hearth::run_command(options);
+    if (*report) return hearth::report_command(report_options);
     if (*study) {
       study_options.common = options;
       return hearth::study_command(study_options);
@@ -135,6 +138,9 @@ int main(int argc, char** argv) {
     std::fprintf(stderr, "error: %s\n", e.what());
     return hearth::exit_bad_input;
   } catch (const hearth::MeshError& e) {
+    std::fprintf(stderr, "error: %s\n", e.what());
+    return hearth::exit_bad_input;
+  } catch (const hearth::ReportUnavailable& e) {
     std::fprintf(stderr, "error: %s\n", e.what());
     return hearth::exit_bad_input;
   } catch (const hearth::WriteError& e) {  // disk full, no permission: the user can fix it

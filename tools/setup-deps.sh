@@ -7,7 +7,10 @@ packages=(
   build-essential cmake pkg-config git procps
   libgmsh-dev gmsh               # meshing SDK (with OpenCASCADE for STEP/BREP)
   libeigen3-dev                  # dense/sparse linear algebra
-  libvtk9-dev                    # VTK XML writers
+  libvtk9-dev                    # VTK XML writers and off-screen rendering (the report's pictures)
+  libx11-dev                     # X display check before rendering
+  xvfb                           # a virtual X display where there is none (servers, CI)
+  chromium                       # headless browser: the report tests open report.html in it
   libyaml-cpp-dev                # case-file parsing
   libgtest-dev                   # unit tests
   libsuitesparse-dev             # CHOLMOD sparse Cholesky

@@ -279,7 +279,8 @@ class RunCommand(Case, unittest.TestCase):
         self.run_ok(self.case.case, "--out", out, "--quiet", "--set", "mesh.size=0.04")
         self.assertFalse(os.path.exists(stray), "a rerun must replace the folder as a whole")
         self.assertFalse(os.path.exists(os.path.join(out, "sub")))
-        self.assertEqual(sorted(os.listdir(out)), ["run.json", "summary.json", "temperature.vtu"])
+        self.assertEqual(sorted(os.listdir(out)),
+                         ["inputs.json", "run.json", "summary.json", "surface.vtp", "temperature.vtu"])
         self.assertEqual(results_like(self.case.root), [])
         s = H.read_json(os.path.join(out, "summary.json"))
         grid = H.read_vtu(os.path.join(out, "temperature.vtu"))

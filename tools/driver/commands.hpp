@@ -16,7 +16,14 @@ struct StudyOptions {
   int jobs = 1;                         // --jobs: levels solved at the same time
 };
 
+struct ReportOptions {
+  std::string results_dir;  // RESULTS_DIR
+  bool mesh_edges = false;  // --mesh-edges
+  bool quiet = false;
+};
+
 int run_command(const CommonOptions& options);
+int report_command(const ReportOptions& options);
 int study_command(const StudyOptions& options);
 int check_command(const CommonOptions& options);
 int mesh_command(const CommonOptions& options);

@@ -15,6 +15,13 @@ class SolveFailed : public std::runtime_error {
   explicit SolveFailed(const std::string& message) : std::runtime_error(message) {}
 };
 
+// The report cannot be made here (no X display and no Xvfb to start one); the
+// message says what to install. Exit status 1, like other problems of set-up or usage.
+class ReportUnavailable : public std::runtime_error {
+ public:
+  explicit ReportUnavailable(const std::string& message) : std::runtime_error(message) {}
+};
+
 // SIGINT or SIGTERM arrived; what was complete is kept.
 class Interrupted : public std::runtime_error {
  public:

@@ -9,6 +9,7 @@
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
+#include <ctime>
 #include <set>
 #include <sstream>
 
@@ -108,10 +109,20 @@ nlohmann::json run_provenance(const Case& c, const CommonOptions& options, doubl
                                {"overrides", options.sets},
                                {"command_line", options.command_line},
                                {"threads", omp_get_max_threads()},
-                               {"seconds", {{"solve", solve_seconds}, {"total", total_seconds}}}};
+                               {"seconds", {{"solve", solve_seconds}, {"total", total_seconds}}},
+                               {"finished", utc_now_text()}};
   if (!options.base_mesh.empty())  // a study's split level: which mesh it split
     provenance["base_mesh"] = std::filesystem::absolute(options.base_mesh).string();
   return provenance;
+}
+
+std::string utc_now_text() {
+  const std::time_t now = std::time(nullptr);
+  std::tm utc{};
+  gmtime_r(&now, &utc);
+  char text[40];
+  std::strftime(text, sizeof text, "%Y-%m-%d %H:%M UTC", &utc);
+  return text;
 }
 
 RunRecord start_record(const Case& c, const Mesh& mesh) {

@@ -33,6 +33,8 @@ struct CommonOptions {
   // A study's split level (hidden option --base-mesh): the mesh is this base mesh (a
   // mesh file, see mesh_file.hpp) split mesh.refinements times instead of a new mesh.
   std::string base_mesh;
+  bool ascii = false;             // --ascii: VTK XML files in ASCII, for reading by eye
+  bool report_allowed = true;     // false for the levels of a study (the study makes one report)
 };
 
 // A digest of the run's inputs (case file, geometry file, overrides, the base mesh of a
@@ -49,7 +51,11 @@ std::string format_number(const char* format, double value);
 // belongs to the case's geometry.
 std::string geometry_digest(const Case& c);
 
-// run.json: how the result was made, so that a colleague can make it again.
+// The current time as "YYYY-MM-DD HH:MM UTC".
+std::string utc_now_text();
+
+// run.json: how the result was made, so that a colleague can make it again; `finished`
+// is when it was written.
 nlohmann::json run_provenance(const Case& c, const CommonOptions& options, double solve_seconds, double total_seconds);
 
 // A record with the case's title and the mesh figures filled in.

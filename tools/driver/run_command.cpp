@@ -6,8 +6,11 @@
 #include <iostream>
 
 #include "io/input_error.hpp"
+#include "io/inputs_json.hpp"
 #include "io/summary_json.hpp"
+#include "io/surface_writer.hpp"
 #include "io/vtu_writer.hpp"
+#include "mesh/body_surface.hpp"
 #include "solver/post_processing.hpp"
 #include "solver/steady_solver.hpp"
 #include "tools/driver/case_mesh_checks.hpp"
@@ -18,7 +21,9 @@
 #include "tools/driver/output_lock.hpp"
 #include "tools/driver/solve_failure.hpp"
 #include "tools/driver/split_mesh.hpp"
+#include "tools/driver/report.hpp"
 #include "tools/driver/transient_run.hpp"
+#include "tools/driver/virtual_display.hpp"
 
 namespace hearth {
 
@@ -27,11 +32,16 @@ namespace {
 void write_results(const Case& c, const Mesh& mesh, const std::vector<double>& temperature, const RunRecord& record,
                    const std::vector<std::vector<LineSample>>& lines, const std::filesystem::path& dir,
                    const char* vtu_name, const CommonOptions& options, double elapsed_seconds) {
+  const VtkEncoding encoding = options.ascii ? VtkEncoding::ascii : VtkEncoding::binary;
   VtuFields fields;
   fields.temperature = &temperature;
   fields.nodal_flux = &record.results.nodal_flux;
   fields.cell_flux = &record.results.cell_flux;
-  write_vtu(dir / vtu_name, mesh, c.units, fields);
+  fields.title = c.title;
+  write_vtu(dir / vtu_name, mesh, c.units, fields, encoding);
+  write_surface_vtp(dir / "surface.vtp", mesh, body_surface(mesh), c.units,
+                    {&temperature, &record.results.nodal_flux, c.title}, encoding);
+  write_summary(dir / "inputs.json", inputs_json(c));
   for (std::size_t l = 0; l < lines.size(); ++l)
     write_line_csv(dir / ("line_" + c.lines[l].name + ".csv"), lines[l], c.units);
   if (!record.probes.empty()) {
@@ -56,6 +66,9 @@ int run_command(const CommonOptions& options) {
   const Progress progress(options.quiet);
   const Case c = load_case(options, progress);
   const std::filesystem::path out = output_directory(c, options);
+  const bool report = c.output_report && options.report_allowed;
+  if (std::string why_not; report && !display_possible(why_not))
+    throw ReportUnavailable("output.report is true, but " + why_not + "; or set output.report: false");
   const OutputLock lock(out, options.command_line);  // one hearth at a time per folder
   if (c.analysis_type == "transient") return run_transient(options, c, out, progress);
   const Mesh mesh = options.base_mesh.empty() ? mesh_case(c, options.threads, progress, options.trust_geometry)
@@ -110,8 +123,9 @@ int run_command(const CommonOptions& options) {
   if (!options.quiet) print_human_summary(c, record, insulated, out);
   else if (options.warnings_to_terminal)
     for (const auto& w : record.warnings) progress.always("warning: " + w);
+  const int report_status = report ? report_after_run(out, c, progress) : exit_done;
   if (!record.converged) throw SolveFailed(solve_failure_message(c, solution, out));
-  return exit_done;
+  return report_status;
 }
 
 }  // namespace hearth

@@ -22,6 +22,8 @@
 #include "tools/driver/mesh_worker.hpp"
 #include "tools/driver/output_lock.hpp"
 #include "tools/driver/study_report.hpp"
+#include "tools/driver/report.hpp"
+#include "tools/driver/virtual_display.hpp"
 
 namespace hearth {
 
@@ -163,7 +165,7 @@ bool already_solved(const Level& level) {
 // The `hearth run` command line of a level, after the program name.
 std::vector<std::string> run_arguments(const Level& level) {
   const CommonOptions& o = level.options;
-  std::vector<std::string> args = {"run", o.case_path, "--out", o.out, "--quiet"};
+  std::vector<std::string> args = {"run", o.case_path, "--out", o.out, "--quiet", "--no-report"};
   if (o.threads > 0) args.insert(args.end(), {"--threads", std::to_string(o.threads)});
   if (o.trust_geometry) args.push_back("--trust-geometry");
   for (const auto& s : o.sets) args.insert(args.end(), {"--set", s});
@@ -248,6 +250,8 @@ int study_command(const StudyOptions& study) {
   const Progress progress(options.quiet);
   const Case c = load_case(options, progress);
   const fs::path dir = output_directory(c, options);
+  if (std::string why_not; c.output_report && !display_possible(why_not))
+    throw ReportUnavailable("output.report is true, but " + why_not + "; or set output.report: false");
   const OutputLock lock(dir, options.command_line);  // one hearth at a time per folder
   const std::vector<int> orders = study_orders(study, c);
   const LevelsBy by = study.sizes.empty() && study.ratio == 2.0 ? LevelsBy::splitting : LevelsBy::remeshing;
@@ -310,6 +314,10 @@ int study_command(const StudyOptions& study) {
   char seconds[32];
   std::snprintf(seconds, sizeof seconds, "%.1f", progress.elapsed());
   progress.say(std::string("study done in ") + seconds + " s");
+  if (c.output_report) {
+    const ReportOutcome report = make_report(dir, c.report_mesh_edges, progress);
+    progress.say("report: " + report.html.string());
+  }
   return exit_done;
 }
 

@@ -7,10 +7,13 @@
 #include <optional>
 
 #include "io/input_error.hpp"
+#include "io/inputs_json.hpp"
 #include "io/stored_result.hpp"
 #include "io/summary_json.hpp"
+#include "io/surface_writer.hpp"
 #include "io/time_series_writer.hpp"
 #include "io/vtu_writer.hpp"
+#include "mesh/body_surface.hpp"
 #include "mesh/mesh_quality.hpp"
 #include "solver/assembler.hpp"
 #include "solver/post_processing.hpp"
@@ -20,6 +23,7 @@
 #include "tools/driver/memory_check.hpp"
 #include "tools/driver/output_directory.hpp"
 #include "tools/driver/split_mesh.hpp"
+#include "tools/driver/report.hpp"
 
 namespace hearth {
 
@@ -368,7 +372,8 @@ int run_transient(const CommonOptions& options, const Case& c, const std::filesy
     fields.nodal_flux = &results.nodal_flux;
     fields.cell_flux = &results.cell_flux;
     fields.time = t;
-    write_vtu(dir / name, mesh, c.units, fields);
+    fields.title = c.title;
+    write_vtu(dir / name, mesh, c.units, fields, options.ascii ? VtkEncoding::ascii : VtkEncoding::binary);
     series.push_back({t, name});
     tr.field_files.push_back(name);
     write_time_series(dir / "temperature.pvd", series);
@@ -466,6 +471,12 @@ int run_transient(const CommonOptions& options, const Case& c, const std::filesy
     const auto lines = sample_lines(c, *locator, solution.temperature, record.warnings);
     write_line_csv(dir / ("line_" + c.lines[l].name + ".csv"), lines[l], c.units);
   }
+  // The outside with the last state's field, and the case as solved.
+  write_surface_vtp(dir / "surface.vtp", mesh, body_surface(mesh), c.units,
+                    {&solution.temperature, record.results.nodal_flux.empty() ? nullptr : &record.results.nodal_flux,
+                     c.title},
+                    options.ascii ? VtkEncoding::ascii : VtkEncoding::binary);
+  write_summary(dir / "inputs.json", inputs_json(c));
   write_summary(dir / "run.json", run_provenance(c, options, solution.seconds, progress.elapsed()));
   const auto summary = summary_json(record, c.units);
   write_summary(dir / "summary.json", summary);  // last: its presence marks a whole result
@@ -477,12 +488,16 @@ int run_transient(const CommonOptions& options, const Case& c, const std::filesy
   } else if (options.warnings_to_terminal) {
     for (const auto& w : record.warnings) progress.always("warning: " + w);
   }
+  // output.report: the report of what was written (not after an interruption: the user
+  // asked to stop).
+  const bool report = c.output_report && options.report_allowed && !solution.interrupted;
+  const int report_status = report ? report_after_run(out, c, progress) : exit_done;
   if (solution.interrupted)
     check_interrupt("at t = " + fmt("%.6g s", solution.time) + "; the time series up to then is in " + out.string());
   if (!record.converged)
     throw SolveFailed("the time integration stopped at t = " + fmt("%.6g s", solution.time) + ": " + solution.failure +
                       "; the results up to then are in " + out.string());
-  return exit_done;
+  return report_status;
 }
 
 }  // namespace hearth

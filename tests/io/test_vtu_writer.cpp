@@ -1,0 +1,74 @@
+// The VTU writer's ASCII form and its field data (read as text: VTK's XML format is
+// plain text with --ascii).
+#include <gtest/gtest.h>
+
+#include <filesystem>
+#include <fstream>
+#include <random>
+#include <regex>
+#include <sstream>
+#include <vector>
+
+#include "io/vtu_writer.hpp"
+
+namespace hearth {
+namespace {
+
+namespace fs = std::filesystem;
+
+Mesh one_tet() {
+  Mesh m;
+  m.coords = {0, 0, 0, 1, 0, 0, 0, 1, 0, 0, 0, 1};
+  m.tet_nodes = {0, 1, 2, 3};
+  m.tet_region = {0};
+  m.regions = {{"block", 7}};
+  return m;
+}
+
+// The strings of an ASCII string array: VTK writes each as its character codes, ended by 0.
+std::vector<std::string> strings_of(const std::string& text, const std::string& name) {
+  std::smatch match;
+  if (!std::regex_search(text, match, std::regex("Name=\"" + name + "\"[^>]*>([^<]*)<"))) return {};
+  std::vector<std::string> out(1);
+  std::istringstream codes(match[1].str());
+  for (int c; codes >> c;) {
+    if (c == 0) out.emplace_back();
+    else out.back() += static_cast<char>(c);
+  }
+  out.pop_back();
+  return out;
+}
+
+std::string read(const fs::path& p) {
+  std::ifstream in(p);
+  std::stringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+TEST(VtuWriter, AsciiFileCarriesNamesUnitsTitleAndTime) {
+  std::random_device random;
+  const fs::path file = fs::temp_directory_path() / ("hearth_test_vtu_" + std::to_string(random()) + ".vtu");
+  const std::vector<double> temperature = {373.15, 373.15, 373.15, 273.15};  // K
+  VtuFields fields;
+  fields.temperature = &temperature;
+  fields.title = "small block";
+  fields.time = 3600.0;
+  write_vtu(file, one_tet(), Units{}, fields, VtkEncoding::ascii);
+  const std::string text = read(file);
+  fs::remove(file);
+  EXPECT_NE(text.find("format=\"ascii\""), std::string::npos);
+  EXPECT_EQ(text.find("AppendedData"), std::string::npos);
+  // "TimeValue": the field-data name VTK's readers take as a data set's time (VTK
+  // convention; common practice, no source).
+  EXPECT_TRUE(std::regex_search(text, std::regex("Name=\"TimeValue\"[^>]*>\\s*3600\\s")));
+  EXPECT_EQ(strings_of(text, "title"), (std::vector<std::string>{"small block"}));
+  EXPECT_EQ(strings_of(text, "region_names"), (std::vector<std::string>{"block"}));
+  EXPECT_EQ(strings_of(text, "units"),
+            (std::vector<std::string>{"length=m", "temperature=degC", "heat_flux=W/m2"}));
+  // Temperatures in degC (the default unit): 100 at three corners, 0 at the fourth.
+  EXPECT_TRUE(std::regex_search(text, std::regex("Name=\"temperature\"[^>]*>\\s*100 100 100 0\\s")));
+}
+
+}  // namespace
+}  // namespace hearth
