@@ -159,9 +159,9 @@ YAML::Node child(const YAML::Node& map, const std::string& name) {
 }
 
 // ---------------------------------------------------------------------------------
-// Step 1: read and parse the file.
+// Step 1: read the file and parse the text.
 
-YAML::Node parse_file(const fs::path& path) {
+std::string read_file_text(const fs::path& path) {
   const std::string file = path.string();
   std::error_code error;
   if (!fs::exists(path, error))
@@ -176,10 +176,14 @@ YAML::Node parse_file(const fs::path& path) {
                      (errno ? std::strerror(errno) : "unknown reason") + "); check its permissions");
   std::ostringstream text;
   text << stream.rdbuf();
+  return text.str();
+}
+
+YAML::Node parse_text(const std::string& text, const std::string& file) {
   try {
-    return YAML::Load(text.str());
+    return YAML::Load(text);
   } catch (const YAML::ParserException& e) {
-    const bool tabs = text.str().find('\t') != std::string::npos;
+    const bool tabs = text.find('\t') != std::string::npos;
     throw InputError(file + ":" + std::to_string(e.mark.line + 1) + ":" +
                      std::to_string(e.mark.column + 1) + ": YAML syntax error: " + e.msg +
                      "; check the indentation, the ':' after each key and the brackets here or just above" +
@@ -1142,16 +1146,20 @@ void read_probes_lines_output(const Reader& reader, const YAML::Node& root, Case
 }  // namespace
 
 Case read_case_file(const fs::path& path, const std::vector<std::string>& overrides) {
+  return read_case_text(read_file_text(path), path, overrides);
+}
+
+Case read_case_text(std::string_view text, const fs::path& path, const std::vector<std::string>& overrides) {
   Reader reader;
   reader.file = path.string();
 
-  YAML::Node root = parse_file(path);
+  YAML::Node root = parse_text(std::string(text), reader.file);
   if (root.IsNull())
     throw InputError(reader.file + ": the case file is empty; it needs at least geometry, mesh, materials and regions");
   if (!root.IsMap())
     throw InputError(reader.file + ":1: expected keys at the top level (geometry:, mesh:, ...), found " +
                      describe_scalar(root));
-  for (const std::string& text : overrides) apply_override(reader, root, text);
+  for (const std::string& override_text : overrides) apply_override(reader, root, override_text);
 
   reader.units = peek_units(root);
   check_map(reader, root, Place{reader.file, 0, "", ""}, "", "", KeyKind::section, true);
