@@ -13,6 +13,7 @@
 #include <cstdio>
 #include <cstring>
 #include <fstream>
+#include <limits>
 #include <map>
 #include <optional>
 #include <set>
@@ -411,11 +412,20 @@ void check_value(const Reader& reader, const Entry& entry, const std::string& ke
       number_or_fail(reader, value, where, spec);
       return;
     case KeyKind::integer: {
+      // The Case keeps whole numbers as int: a value beyond it is refused here, not left
+      // to fail in the conversion when the Case is built.
+      constexpr double largest = std::numeric_limits<int>::max();
       long long n = 0;
-      if (!value.IsScalar() || !YAML::convert<long long>::decode(value, n))
+      double x = 0.0;
+      if (value.IsScalar() && YAML::convert<long long>::decode(value, n))
+        x = static_cast<double>(n);
+      else if (!value.IsScalar() || !YAML::convert<double>::decode(value, x) || !(std::abs(x) > largest))
         reader.fail(where, describe_scalar(value) + " is not a whole number; expected " + reader.expected(spec));
-      if (!spec.range.contains(static_cast<double>(n)))
+      if (!spec.range.contains(x))
         reader.fail(where, value.Scalar() + " is not allowed; must be " + spec.range.str());
+      if (std::abs(x) > largest)
+        reader.fail(where, value.Scalar() + " is too large; must be " + spec.range.str() +
+                               (std::isfinite(spec.range.high) ? "" : " and at most 2147483647"));
       return;
     }
     case KeyKind::boolean: {

@@ -467,6 +467,20 @@ TEST_F(CaseFileTest, SolverToleranceMustLieBetweenZeroAndOne) {
                   ":16: solver.tolerance: 1 is not allowed; must be in (0, 1)"));
 }
 
+// Whole numbers are kept as int; one beyond it is an input error at its key, not a
+// failed conversion later (found by the case-file fuzzer).
+TEST_F(CaseFileTest, WholeNumberBeyondIntIsAnInputError) {
+  EXPECT_TRUE(has(error_of(minimal_case + "lines:\n  l: {from: [0, 0, 0], to: [1, 0, 0], points: 4294967296}\n"),
+                  ":17: lines.l.points: 4294967296 is too large; must be >= 2 and at most 2147483647"));
+  EXPECT_TRUE(has(error_of(replaced(minimal_case, "size: 0.02", "size: 0.02\n  refinements: 1e10")),
+                  ":5: mesh.refinements: 1e10 is too large; must be >= 0 and at most 2147483647"));
+  EXPECT_TRUE(has(error_of(minimal_case, {"solver.nonlinear.max_iterations=99999999999999999999"}),
+                  "--set solver.nonlinear.max_iterations: 99999999999999999999 is too large"));
+  EXPECT_TRUE(has(error_of(minimal_case + "version: 4294967297\n"), ":16: version: 4294967297 is not allowed; must be 1"));
+  EXPECT_TRUE(has(error_of(minimal_case + "lines:\n  l: {from: [0, 0, 0], to: [1, 0, 0], points: 1e3}\n"),
+                  "'1e3' is not a whole number"));
+}
+
 // --- conductivity forms, film-coefficient tables, radiation, safety, library ---------
 
 namespace {
