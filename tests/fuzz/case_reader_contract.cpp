@@ -70,6 +70,69 @@ void check_point(const std::array<double, 3>& p, const std::string& name) {
   for (double x : p) require(std::isfinite(x), name + ": coordinate not finite");
 }
 
+// A transient analysis: positive duration and first step no longer than it, a starting
+// field, output times increasing in (0, duration] and ending at the duration, and the
+// heat capacity of every material used.
+void check_transient(const Case& c) {
+  const TransientSpec& t = c.transient;
+  require(finite_positive(t.duration), "analysis.duration not > 0");
+  require(finite_positive(t.time_step) && t.time_step <= t.duration, "analysis.time_step not in (0, duration]");
+  require(finite_positive(t.step_tolerance), "analysis.time_stepping.tolerance not > 0");
+  require(t.method == "bdf2" || t.method == "backward_euler", "analysis.time_stepping.method unknown");
+  const int starts = int(t.initial_temperature.has_value()) + int(!t.initial_by_region.empty()) +
+                     int(t.initial_result.has_value());
+  require(starts == 1, "analysis.initial_temperature: not exactly one starting field");
+  if (t.initial_temperature) require(finite_kelvin(*t.initial_temperature), "analysis.initial_temperature below 0 K");
+  if (!t.initial_by_region.empty())
+    for (const auto& [region, material] : c.regions) {
+      require(t.initial_by_region.count(region) == 1, "analysis.initial_temperature: no value for region " + region);
+      require(finite_kelvin(t.initial_by_region.at(region)), "analysis.initial_temperature." + region + " below 0 K");
+    }
+  if (t.initial_result) require(t.initial_result->is_absolute(), "analysis.initial_temperature.result not absolute");
+  require(!t.output_times.empty() && t.output_times.back() == t.duration, "output times do not end at the duration");
+  for (std::size_t i = 0; i < t.output_times.size(); ++i) {
+    require(t.output_times[i] > 0.0 && t.output_times[i] <= t.duration, "an output time outside (0, duration]");
+    if (i > 0) require(t.output_times[i] > t.output_times[i - 1], "output times not increasing");
+  }
+  for (const auto& [region, material] : c.regions) {
+    const MaterialSpec& m = c.materials.at(material);
+    require(m.density && m.specific_heat, "materials." + material + ": no heat capacity in a transient analysis");
+  }
+}
+
+// A {vs_time: ...} table: times from 0 on, not decreasing, a time at most twice (a
+// step); values finite, temperatures not below 0 K, film coefficients > 0; it belongs to
+// a boundary or region of the case.
+void check_time_table(const TimeVaryingValue& value, const Case& c) {
+  using Target = TimeVaryingValue::Target;
+  const std::string name = "vs_time table of " + value.name;
+  const TimeTable& table = value.table;
+  require(c.analysis_type == "transient", name + " in a steady analysis");
+  require(!table.t.empty() && table.t.size() == table.v.size(), name + ": no rows or ragged columns");
+  for (std::size_t i = 0; i < table.t.size(); ++i) {
+    require(std::isfinite(table.t[i]) && table.t[i] >= 0.0, name + ": a time before 0 s");
+    if (i > 0) require(table.t[i] >= table.t[i - 1], name + ": times decreasing");
+    if (i > 1) require(!(table.t[i] == table.t[i - 1] && table.t[i] == table.t[i - 2]), name + ": a time three times");
+    require(std::isfinite(table.v[i]), name + ": a value not finite");
+    switch (value.target) {
+      case Target::temperature:
+      case Target::convection_ambient:
+      case Target::radiation_surroundings:
+        require(table.v[i] >= 0.0, name + ": a temperature below 0 K");
+        break;
+      case Target::convection_coefficient:
+        require(table.v[i] > 0.0, name + ": a film coefficient not > 0");
+        break;
+      case Target::heat_flux:
+      case Target::heat_source:
+        break;
+    }
+  }
+  const bool region = value.target == Target::heat_source;
+  require(region ? c.heat_sources.count(value.name) == 1 : c.boundaries.count(value.name) == 1,
+          name + ": not a " + std::string(region ? "heat source" : "boundary") + " of the case");
+}
+
 // Every value of an accepted case lies in the range io/case.hpp states.
 void check_accepted(const Case& c) {
   require(finite_positive(c.mesh_size), "mesh.size not > 0");
@@ -83,8 +146,8 @@ void check_accepted(const Case& c) {
   for (const auto& [name, material] : c.materials) {
     const std::string key = "materials." + name;
     check_conductivity(material.conductivity, key + ".conductivity");
-    if (material.density) require(finite_positive(*material.density), key + ".density not > 0");
-    if (material.specific_heat) require(finite_positive(*material.specific_heat), key + ".specific_heat not > 0");
+    if (material.density) check_table(*material.density, key + ".density");
+    if (material.specific_heat) check_table(*material.specific_heat, key + ".specific_heat");
     if (material.max_service_temperature)
       require(finite_kelvin(*material.max_service_temperature), key + ".max_service_temperature below 0 K");
   }
@@ -115,6 +178,14 @@ void check_accepted(const Case& c) {
   }
   for (const auto& [name, spec] : c.interfaces)
     require(finite_positive(spec.conductance), "interfaces." + name + ".conductance not > 0");
+
+  if (c.analysis_type == "transient") check_transient(c);
+  else require(c.analysis_type == "steady", "analysis.type neither steady nor transient");
+  for (const TimeVaryingValue& value : c.time_varying) check_time_table(value, c);
+  for (const ThresholdSpec& threshold : c.thresholds) {
+    require(c.analysis_type == "transient", "thresholds." + threshold.name + " in a steady analysis");
+    require(finite_kelvin(threshold.temperature), "thresholds." + threshold.name + " below 0 K");
+  }
 
   require(c.solver.tolerance > 0.0 && c.solver.tolerance < 1.0, "solver.tolerance outside (0, 1)");
   require(c.solver.nonlinear_tolerance > 0.0 && c.solver.nonlinear_tolerance < 1.0,
