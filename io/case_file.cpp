@@ -518,6 +518,20 @@ double to_metres(const Units& units, const YAML::Node& value) {
   return value.as<double>() * units.metres_per_length();
 }
 
+std::string number_text(double x);
+
+// An element size in metres. The check against the schema's "> 0" saw the number as
+// written; in millimetres a tiny one (4.9e-324 mm) becomes 0 m or a subnormal number
+// once converted, which no mesher can use.
+double element_size_in_metres(const Reader& reader, const YAML::Node& value, const Place& where) {
+  const double metres = to_metres(reader.units, value);
+  if (!std::isnormal(metres))
+    reader.fail(where, value.Scalar() + " " + reader.units.length + " is too small for an element size (" +
+                           number_text(metres) + " m, below the smallest normal number, " +
+                           number_text(std::numeric_limits<double>::min()) + " m); give the size of the elements wanted");
+  return metres;
+}
+
 std::array<double, 3> point_in_metres(const Units& units, const YAML::Node& value) {
   return {to_metres(units, value[0]), to_metres(units, value[1]), to_metres(units, value[2])};
 }
@@ -561,15 +575,16 @@ void read_geometry_and_mesh(const Reader& reader, const YAML::Node& root, Case& 
                                       (errno ? std::strerror(errno) : "unknown reason") + "); check its permissions");
 
   const YAML::Node mesh = child(root, "mesh");
-  c.mesh_size = to_metres(c.units, value_or_default(mesh, "size", "mesh.size"));
-  const std::optional<Entry> size = find_entry(mesh, "size");
-  c.mesh_size_place = size ? reader.place(size->key, "mesh.size") : Place{reader.file, 0, "mesh.size", ""};
+  const Entry size = *find_entry(mesh, "size");  // required: the schema check made sure it is there
+  c.mesh_size_place = reader.place(size.key, "mesh.size");
+  c.mesh_size = element_size_in_metres(reader, size.value, c.mesh_size_place);
   c.mesh_order = value_or_default(mesh, "order", "mesh.order").as<int>();
   c.mesh_refinements = value_or_default(mesh, "refinements", "mesh.refinements").as<int>();
   if (const std::optional<Entry> local = find_entry(mesh, "local_sizes")) {
     for (const Entry& entry : entries(reader, local->value, Place{})) {
-      c.local_sizes[entry.name] = to_metres(c.units, entry.value);
-      c.local_size_places[entry.name] = reader.place(entry.key, "mesh.local_sizes." + entry.name);
+      const Place where = reader.place(entry.key, "mesh.local_sizes." + entry.name);
+      c.local_sizes[entry.name] = element_size_in_metres(reader, entry.value, where);
+      c.local_size_places[entry.name] = where;
     }
   }
 }

@@ -484,6 +484,15 @@ TEST_F(CaseFileTest, AliasesOfAliasesAreCutShortInMessages) {
   EXPECT_LT(message.size(), 600u);
 }
 
+// A size that is above zero as written but 0 m (or subnormal) in metres is refused
+// (found by the case-file fuzzer).
+TEST_F(CaseFileTest, ElementSizeThatVanishesInMetresIsAnInputError) {
+  EXPECT_TRUE(has(error_of("units: {length: mm}\n" + replaced(minimal_case, "size: 0.02", "size: 4e-324")),
+                  ":5: mesh.size: 4e-324 mm is too small for an element size (0 m"));
+  EXPECT_TRUE(has(error_of(replaced(minimal_case, "size: 0.02", "size: 0.02\n  local_sizes: {hot_face: 1e-310}")),
+                  ":5: mesh.local_sizes.hot_face: 1e-310 m is too small for an element size"));
+}
+
 // Whole numbers are kept as int; one beyond it is an input error at its key, not a
 // failed conversion later (found by the case-file fuzzer, tests/fuzz/regressions).
 TEST_F(CaseFileTest, WholeNumberBeyondIntIsAnInputError) {
