@@ -8,6 +8,9 @@ the tests' methods with the hearth program replaced by a recorder: each call tha
 run hearth records the case file it names, its --set overrides written as leading
 "#--set KEY=VALUE" lines (fuzz_case_file.cpp reads them back as overrides), and nothing
 is run. The tests' assertions then fail, which is expected and ignored.
+
+geometry_guard: every Gmsh script (.geo) of cases/, and every script the command-line
+tests write (the geometry-guard tests' unsafe scripts among them), collected the same way.
 """
 
 import glob
@@ -57,9 +60,39 @@ def _refuse(*_args, **_kwargs):
     raise RuntimeError("seed collection runs no programs")
 
 
+class _Failed:
+    """What subprocess.run returns during seed collection: a program that failed."""
+    returncode = 1
+    stdout = stderr = ""
+
+
+def _fail(*_args, **_kwargs):
+    return _Failed()
+
+
 def cli_case_texts(cli_dir=None):
     """Every case text the command-line tests write or run hearth on."""
+    run, written = _cli_texts(cli_dir)
+    return run + written[".yaml"]
+
+
+def cli_script_texts(cli_dir=None):
+    """Every Gmsh script the command-line tests write."""
+    return _cli_texts(cli_dir)[1][".geo"]
+
+
+_collected = {}
+
+
+def _cli_texts(cli_dir=None):
+    """(case texts hearth was run on, {extension: texts written}), collected once."""
     cli_dir = cli_dir or os.path.join(SOURCE, "tests", "cli")
+    if cli_dir not in _collected:
+        _collected[cli_dir] = _collect_cli_texts(cli_dir)
+    return _collected[cli_dir]
+
+
+def _collect_cli_texts(cli_dir):
     sys.path.insert(0, cli_dir)
     saved = (subprocess.run, subprocess.Popen, time.sleep, tempfile.tempdir)
     # The tests' case folders go into a scratch folder of our own, removed at the end
@@ -69,25 +102,32 @@ def cli_case_texts(cli_dir=None):
     try:
         import hearth_testlib as H
         recorder = _Recorder()
-        written = []
+        written = {".yaml": [], ".geo": []}
         write_text = H.write_text
 
         def recording_write_text(path, text):
-            if str(path).endswith((".yaml", ".yml")):
-                written.append(text)
+            extension = os.path.splitext(str(path))[1].lower()
+            extension = ".yaml" if extension == ".yml" else extension
+            if extension in written:
+                written[extension].append(text)
             write_text(path, text)
 
         H.run_hearth = recorder
         H.write_text = recording_write_text
         H.HEARTH = "/nonexistent/hearth"
-        subprocess.run = subprocess.Popen = _refuse
+        subprocess.run = _fail  # also when a module probes a program as it is imported
+        subprocess.Popen = _refuse
         time.sleep = lambda _seconds: None
         for path in sorted(glob.glob(os.path.join(cli_dir, "test_*.py"))):
-            module = importlib.import_module(os.path.splitext(os.path.basename(path))[0])
+            try:
+                module = importlib.import_module(os.path.splitext(os.path.basename(path))[0])
+            except Exception as e:  # a module that runs a program while it is imported
+                sys.stderr.write("seeds: %s skipped (%s)\n" % (os.path.basename(path), e))
+                continue
             suite = unittest.TestLoader().loadTestsFromModule(module)
             with open(os.devnull, "w") as quiet:
                 unittest.TextTestRunner(stream=quiet, verbosity=0).run(suite)
-        return recorder.texts + written
+        return recorder.texts, written
     finally:
         subprocess.run, subprocess.Popen, time.sleep, tempfile.tempdir = saved
         sys.path.remove(cli_dir)
@@ -105,9 +145,18 @@ def case_file_seeds():
     return texts
 
 
+def geometry_guard_seeds():
+    texts = []
+    for path in sorted(glob.glob(os.path.join(SOURCE, "cases", "*", "*.geo"))):
+        with open(path, encoding="utf-8", errors="replace") as fh:
+            texts.append(fh.read())
+    return texts + cli_script_texts()
+
+
 # Target name -> function returning its seed texts.
 SEEDS = {
     "case_file": case_file_seeds,
+    "geometry_guard": geometry_guard_seeds,
 }
 
 
