@@ -13,6 +13,7 @@
 #include <cstdio>
 #include <cstring>
 #include <fstream>
+#include <limits>
 #include <map>
 #include <optional>
 #include <set>
@@ -159,9 +160,9 @@ YAML::Node child(const YAML::Node& map, const std::string& name) {
 }
 
 // ---------------------------------------------------------------------------------
-// Step 1: read and parse the file.
+// Step 1: read the file and parse the text.
 
-YAML::Node parse_file(const fs::path& path) {
+std::string read_file_text(const fs::path& path) {
   const std::string file = path.string();
   std::error_code error;
   if (!fs::exists(path, error))
@@ -176,10 +177,14 @@ YAML::Node parse_file(const fs::path& path) {
                      (errno ? std::strerror(errno) : "unknown reason") + "); check its permissions");
   std::ostringstream text;
   text << stream.rdbuf();
+  return text.str();
+}
+
+YAML::Node parse_text(const std::string& text, const std::string& file) {
   try {
-    return YAML::Load(text.str());
+    return YAML::Load(text);
   } catch (const YAML::ParserException& e) {
-    const bool tabs = text.str().find('\t') != std::string::npos;
+    const bool tabs = text.find('\t') != std::string::npos;
     throw InputError(file + ":" + std::to_string(e.mark.line + 1) + ":" +
                      std::to_string(e.mark.column + 1) + ": YAML syntax error: " + e.msg +
                      "; check the indentation, the ':' after each key and the brackets here or just above" +
@@ -411,11 +416,20 @@ void check_value(const Reader& reader, const Entry& entry, const std::string& ke
       number_or_fail(reader, value, where, spec);
       return;
     case KeyKind::integer: {
+      // The Case keeps whole numbers as int: a value beyond it is refused here, not left
+      // to fail in the conversion when the Case is built.
+      constexpr double largest = std::numeric_limits<int>::max();
       long long n = 0;
-      if (!value.IsScalar() || !YAML::convert<long long>::decode(value, n))
+      double x = 0.0;
+      if (value.IsScalar() && YAML::convert<long long>::decode(value, n))
+        x = static_cast<double>(n);
+      else if (!value.IsScalar() || !YAML::convert<double>::decode(value, x) || !(std::abs(x) > largest))
         reader.fail(where, describe_scalar(value) + " is not a whole number; expected " + reader.expected(spec));
-      if (!spec.range.contains(static_cast<double>(n)))
+      if (!spec.range.contains(x))
         reader.fail(where, value.Scalar() + " is not allowed; must be " + spec.range.str());
+      if (std::abs(x) > largest)
+        reader.fail(where, value.Scalar() + " is too large; must be " + spec.range.str() +
+                               (std::isfinite(spec.range.high) ? "" : " and at most 2147483647"));
       return;
     }
     case KeyKind::boolean: {
@@ -508,6 +522,20 @@ double to_metres(const Units& units, const YAML::Node& value) {
   return value.as<double>() * units.metres_per_length();
 }
 
+std::string number_text(double x);
+
+// An element size in metres. The check against the schema's "> 0" saw the number as
+// written; in millimetres a tiny one (4.9e-324 mm) becomes 0 m or a subnormal number
+// once converted, which no mesher can use.
+double element_size_in_metres(const Reader& reader, const YAML::Node& value, const Place& where) {
+  const double metres = to_metres(reader.units, value);
+  if (!std::isnormal(metres))
+    reader.fail(where, value.Scalar() + " " + reader.units.length + " is too small for an element size (" +
+                           number_text(metres) + " m, below the smallest normal number, " +
+                           number_text(std::numeric_limits<double>::min()) + " m); give the size of the elements wanted");
+  return metres;
+}
+
 std::array<double, 3> point_in_metres(const Units& units, const YAML::Node& value) {
   return {to_metres(units, value[0]), to_metres(units, value[1]), to_metres(units, value[2])};
 }
@@ -551,15 +579,16 @@ void read_geometry_and_mesh(const Reader& reader, const YAML::Node& root, Case& 
                                       (errno ? std::strerror(errno) : "unknown reason") + "); check its permissions");
 
   const YAML::Node mesh = child(root, "mesh");
-  c.mesh_size = to_metres(c.units, value_or_default(mesh, "size", "mesh.size"));
-  const std::optional<Entry> size = find_entry(mesh, "size");
-  c.mesh_size_place = size ? reader.place(size->key, "mesh.size") : Place{reader.file, 0, "mesh.size", ""};
+  const Entry size = *find_entry(mesh, "size");  // required: the schema check made sure it is there
+  c.mesh_size_place = reader.place(size.key, "mesh.size");
+  c.mesh_size = element_size_in_metres(reader, size.value, c.mesh_size_place);
   c.mesh_order = value_or_default(mesh, "order", "mesh.order").as<int>();
   c.mesh_refinements = value_or_default(mesh, "refinements", "mesh.refinements").as<int>();
   if (const std::optional<Entry> local = find_entry(mesh, "local_sizes")) {
     for (const Entry& entry : entries(reader, local->value, Place{})) {
-      c.local_sizes[entry.name] = to_metres(c.units, entry.value);
-      c.local_size_places[entry.name] = reader.place(entry.key, "mesh.local_sizes." + entry.name);
+      const Place where = reader.place(entry.key, "mesh.local_sizes." + entry.name);
+      c.local_sizes[entry.name] = element_size_in_metres(reader, entry.value, where);
+      c.local_size_places[entry.name] = where;
     }
   }
 }
@@ -1148,16 +1177,20 @@ void read_probes_lines_output(const Reader& reader, const YAML::Node& root, Case
 }  // namespace
 
 Case read_case_file(const fs::path& path, const std::vector<std::string>& overrides) {
+  return read_case_text(read_file_text(path), path, overrides);
+}
+
+Case read_case_text(std::string_view text, const fs::path& path, const std::vector<std::string>& overrides) {
   Reader reader;
   reader.file = path.string();
 
-  YAML::Node root = parse_file(path);
+  YAML::Node root = parse_text(std::string(text), reader.file);
   if (root.IsNull())
     throw InputError(reader.file + ": the case file is empty; it needs at least geometry, mesh, materials and regions");
   if (!root.IsMap())
     throw InputError(reader.file + ":1: expected keys at the top level (geometry:, mesh:, ...), found " +
                      describe_scalar(root));
-  for (const std::string& text : overrides) apply_override(reader, root, text);
+  for (const std::string& override_text : overrides) apply_override(reader, root, override_text);
 
   reader.units = peek_units(root);
   check_map(reader, root, Place{reader.file, 0, "", ""}, "", "", KeyKind::section, true);

@@ -21,13 +21,37 @@ Place place_at(const Place& where, const YAML::Node& node) {
   return moved;
 }
 
+namespace {
+
+// Appends `node` as written to `text`, and stops once `text` is longer than `limit`: a
+// list can hold aliases of aliases (&b [*a, *a, ...], &c [*b, *b, ...]) whose form
+// written out grows exponentially with the size of the file.
+void append_yaml_text(const YAML::Node& node, std::string& text, std::size_t limit) {
+  if (text.size() > limit) return;
+  if (!node.IsDefined() || node.IsNull()) {
+    text += "nothing";
+  } else if (node.IsScalar()) {
+    text += node.Scalar();
+  } else if (node.IsMap()) {
+    text += "keys";
+  } else {
+    text += "[";
+    for (std::size_t i = 0; i < node.size() && text.size() <= limit; ++i) {
+      if (i > 0) text += ", ";
+      append_yaml_text(node[i], text, limit);
+    }
+    text += "]";
+  }
+}
+
+}  // namespace
+
 std::string yaml_text(const YAML::Node& node) {
-  if (!node.IsDefined() || node.IsNull()) return "nothing";
-  if (node.IsScalar()) return node.Scalar();
-  if (node.IsMap()) return "keys";
-  std::string text = "[";
-  for (std::size_t i = 0; i < node.size(); ++i) text += (i ? ", " : "") + yaml_text(node[i]);
-  return text + "]";
+  constexpr std::size_t limit = 200;  // characters; a message quotes the value, not pages of it
+  std::string text;
+  append_yaml_text(node, text, limit);
+  if (text.size() > limit) text = text.substr(0, limit) + " ...";
+  return text;
 }
 
 std::optional<double> yaml_number(const YAML::Node& node) {

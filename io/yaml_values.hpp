@@ -21,7 +21,8 @@ namespace hearth {
 // on a line of its own). Unchanged for a value from --set or one without a line.
 Place place_at(const Place& where, const YAML::Node& node);
 
-// A value as it was written, for messages: "400", "[400, 0.09]", "keys".
+// A value as it was written, for messages: "400", "[400, 0.09]", "keys"; cut after 200
+// characters with " ...".
 std::string yaml_text(const YAML::Node& node);
 
 // The finite number a scalar holds, if it holds one.

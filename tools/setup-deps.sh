@@ -20,6 +20,7 @@ packages=(
   libopenblas-dev libopenblas0-pthread   # fast BLAS under CHOLMOD
   python3-vtk9 python3-numpy     # independent reader used by the result tests
   bubblewrap                     # sandbox for parsing geometry from others (tools/driver/sandbox.hpp)
+  clang-14 libclang-rt-14-dev libomp-14-dev   # fuzzing build: clang, libFuzzer and sanitiser runtimes, OpenMP
 )
 
 SUDO=""

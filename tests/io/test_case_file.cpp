@@ -467,6 +467,46 @@ TEST_F(CaseFileTest, SolverToleranceMustLieBetweenZeroAndOne) {
                   ":16: solver.tolerance: 1 is not allowed; must be in (0, 1)"));
 }
 
+// A value quoted in a message is cut after 200 characters: lists that alias each other
+// ten times over would otherwise be written out as 10^8 names (found while writing the
+// fuzzing contract).
+TEST_F(CaseFileTest, AliasesOfAliasesAreCutShortInMessages) {
+  std::string lists = "&l0 [z, z, z, z, z, z, z, z, z, z]";
+  for (int level = 1; level < 8; ++level) {
+    const std::string alias = "*l" + std::to_string(level - 1);
+    lists += ", &l" + std::to_string(level) + " [" + alias;
+    for (int i = 1; i < 10; ++i) lists += ", " + alias;
+    lists += "]";
+  }
+  const std::string message = error_of(minimal_case + "safety:\n  touch_surfaces: [[" + lists + "]]\n");
+  EXPECT_TRUE(has(message, ":17: safety.touch_surfaces: expected a name in the list, found [[z, z, z"));
+  EXPECT_TRUE(has(message, " ..."));
+  EXPECT_LT(message.size(), 600u);
+}
+
+// A size that is above zero as written but 0 m (or subnormal) in metres is refused
+// (found by the case-file fuzzer).
+TEST_F(CaseFileTest, ElementSizeThatVanishesInMetresIsAnInputError) {
+  EXPECT_TRUE(has(error_of("units: {length: mm}\n" + replaced(minimal_case, "size: 0.02", "size: 4e-324")),
+                  ":5: mesh.size: 4e-324 mm is too small for an element size (0 m"));
+  EXPECT_TRUE(has(error_of(replaced(minimal_case, "size: 0.02", "size: 0.02\n  local_sizes: {hot_face: 1e-310}")),
+                  ":5: mesh.local_sizes.hot_face: 1e-310 m is too small for an element size"));
+}
+
+// Whole numbers are kept as int; one beyond it is an input error at its key, not a
+// failed conversion later (found by the case-file fuzzer, tests/fuzz/regressions).
+TEST_F(CaseFileTest, WholeNumberBeyondIntIsAnInputError) {
+  EXPECT_TRUE(has(error_of(minimal_case + "lines:\n  l: {from: [0, 0, 0], to: [1, 0, 0], points: 4294967296}\n"),
+                  ":17: lines.l.points: 4294967296 is too large; must be >= 2 and at most 2147483647"));
+  EXPECT_TRUE(has(error_of(replaced(minimal_case, "size: 0.02", "size: 0.02\n  refinements: 1e10")),
+                  ":5: mesh.refinements: 1e10 is too large; must be >= 0 and at most 2147483647"));
+  EXPECT_TRUE(has(error_of(minimal_case, {"solver.nonlinear.max_iterations=99999999999999999999"}),
+                  "--set solver.nonlinear.max_iterations: 99999999999999999999 is too large"));
+  EXPECT_TRUE(has(error_of(minimal_case + "version: 4294967297\n"), ":16: version: 4294967297 is not allowed; must be 1"));
+  EXPECT_TRUE(has(error_of(minimal_case + "lines:\n  l: {from: [0, 0, 0], to: [1, 0, 0], points: 1e3}\n"),
+                  "'1e3' is not a whole number"));
+}
+
 // --- conductivity forms, film-coefficient tables, radiation, safety, library ---------
 
 namespace {
