@@ -222,6 +222,9 @@ const std::vector<Override>& overrides() {
        }},
       {"output.directory", {"output.directory=sweep/h_8"},
        [](const Case& c) { EXPECT_EQ(c.output_directory.filename(), "h_8"); }},
+      {"output.report", {"output.report=true"}, [](const Case& c) { EXPECT_TRUE(c.output_report); }},
+      {"output.report_mesh_edges", {"output.report_mesh_edges=true"},
+       [](const Case& c) { EXPECT_TRUE(c.report_mesh_edges); }},
   };
   return table;
 }

@@ -467,9 +467,10 @@ int run_transient(const CommonOptions& options, const Case& c, const std::filesy
                               fmt("%.6g s", settings.duration) + "; the results end there");
 
   if (!probe_rows.empty()) write_probes_csv(dir / "probes.csv", probe_names, probe_rows, c.units);
-  for (std::size_t l = 0; l < c.lines.size() && locator; ++l) {
+  if (locator && !c.lines.empty()) {  // the final field along each line, sampled once
     const auto lines = sample_lines(c, *locator, solution.temperature, record.warnings);
-    write_line_csv(dir / ("line_" + c.lines[l].name + ".csv"), lines[l], c.units);
+    for (std::size_t l = 0; l < c.lines.size(); ++l)
+      write_line_csv(dir / ("line_" + c.lines[l].name + ".csv"), lines[l], c.units);
   }
   // The outside with the last state's field, and the case as solved.
   write_surface_vtp(dir / "surface.vtp", mesh, body_surface(mesh), c.units,
