@@ -75,8 +75,10 @@ Rotate {{0, 0, 1}, {0, 0, 0}, )") + std::to_string(angle) + "} { Volume{1}; }\n"
   auto at = [&](double u, double v) {
     return temperature_at(mesh, sol.solution.temperature, {c * u - s * v, s * u + c * v, 0.05});
   };
-  EXPECT_NEAR(at(0.5, 0.25), 0.199268, 1e-4) << "angle " << angle;
-  EXPECT_NEAR(at(0.25, 0.4), 0.375459, 1e-4) << "angle " << angle;
+  // 2e-4: the P2 discretisation error at h = 0.03 on Gmsh's (not repeatable) meshes
+  // reached 1.004e-4 in about one run in five.
+  EXPECT_NEAR(at(0.5, 0.25), 0.199268, 2e-4) << "angle " << angle;
+  EXPECT_NEAR(at(0.25, 0.4), 0.375459, 2e-4) << "angle " << angle;
 }
 
 TEST(AnisotropicConductivity, OrthotropicPlateSeparableSolution) { check_orthotropic_plate(0.0); }
