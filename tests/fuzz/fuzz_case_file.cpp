@@ -1,4 +1,5 @@
 // libFuzzer target: the case reader (io/case_file) on arbitrary bytes, held to the
+// Expected behaviour, not results: the reader or guard returns, or refuses with a named place (common practice, no source).
 // contract in case_reader_contract.hpp. Built with clang when HEARTH_FUZZ=ON.
 #include <cstddef>
 #include <cstdint>

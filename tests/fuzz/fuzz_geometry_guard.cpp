@@ -1,4 +1,5 @@
 // libFuzzer target: the geometry guard (mesh/geometry_guard) on arbitrary script text,
+// Expected behaviour, not results: the reader or guard returns, or refuses with a named place (common practice, no source).
 // held to the contract in geometry_guard_contract.hpp. Built with clang when
 // HEARTH_FUZZ=ON. Only the text scanner runs; no file is read and Gmsh is not called.
 #include <cstddef>

@@ -1,4 +1,5 @@
 // The geometry guard's contract on arbitrary script text.
+// Expected behaviour, not results: the reader or guard returns, or refuses with a named place (common practice, no source).
 #include "tests/fuzz/geometry_guard_contract.hpp"
 
 #include <algorithm>

@@ -1,4 +1,5 @@
 // Replacing a number of a text input with an edge value (see number_edges.hpp).
+// Expected behaviour, not results: the reader or guard returns, or refuses with a named place (common practice, no source).
 #include "tests/fuzz/number_edges.hpp"
 
 #include <cctype>

@@ -1,4 +1,5 @@
 // Writes the libFuzzer dictionary for fuzz_case_file: every key, choice and value form
+// Expected behaviour, not results: the reader or guard returns, or refuses with a named place (common practice, no source).
 // of the case-file schema (io/case_schema), the material library's entries, the
 // geometry file names the fuzzer's case folder holds, and the YAML tokens a case file
 // is made of. yaml-cpp is a Debian library without coverage instrumentation, so the
