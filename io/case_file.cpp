@@ -1014,6 +1014,14 @@ void check_transient(const Reader& reader, const YAML::Node& analysis, Case& c) 
   if (!find_entry(analysis, "time_step")) missing("time_step", "the first time step in s, e.g. time_step: 10");
   if (!find_entry(analysis, "initial_temperature"))
     missing("initial_temperature", "a number, {regions: {NAME: number}} or {result: FOLDER}");
+  // The check against "> 0" let a subnormal step through, whose heat capacity over the
+  // step (rho c / dt) is infinite: no solver can use it.
+  if (transient.time_step < 1e-300) {
+    const auto step = find_entry(analysis, "time_step");
+    reader.fail(reader.place(step->key, "analysis.time_step"),
+                number_text(transient.time_step) + " s is too small to step with; give a first step of at least " +
+                    "1e-300 s (in practice a fraction of the duration)");
+  }
   if (transient.time_step > transient.duration) {
     const auto step = find_entry(analysis, "time_step");
     reader.fail(reader.place(step->key, "analysis.time_step"),
@@ -1033,8 +1041,17 @@ void check_transient(const Reader& reader, const YAML::Node& analysis, Case& c) 
     }
   }
   if (transient.output_times.empty())  // ten even intervals
-    for (int k = 1; k <= 10; ++k) transient.output_times.push_back(transient.duration * k / 10.0);
-  if (transient.output_times.back() < transient.duration) transient.output_times.push_back(transient.duration);
+    for (int k = 1; k < 10; ++k) {
+      // duration * k / 10 is exact for whole seconds, but overflows near the largest
+      // double, where duration / 10 * k does not; for a subnormal duration the first
+      // times round to 0 s or onto their predecessor and are left out.
+      const double d = transient.duration;
+      const double t = d <= std::numeric_limits<double>::max() / 10.0 ? d * k / 10.0 : d / 10.0 * k;
+      const double previous = transient.output_times.empty() ? 0.0 : transient.output_times.back();
+      if (t > previous && t < d) transient.output_times.push_back(t);
+    }
+  if (transient.output_times.empty() || transient.output_times.back() < transient.duration)
+    transient.output_times.push_back(transient.duration);
   for (const auto& [region, material_name] : c.regions) {
     const MaterialSpec& m = c.materials.at(material_name);
     if (m.density && m.specific_heat) continue;

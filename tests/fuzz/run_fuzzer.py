@@ -108,8 +108,16 @@ def main():
         len(os.listdir(corpus))))
     if returncode != 0 or found:
         sys.stdout.write(text[-12000:])
+        # The reason and the input itself are printed last, where a cut log still
+        # shows them: the artifact folder is gone with the CI machine.
+        for line in re.findall(r"^\s*what\(\):.*$|^==\d+==\s*ERROR:.*$|^SUMMARY:.*$", text, re.M)[-6:]:
+            print("fuzz.%s: %s" % (args.name, line.strip()))
         for name in found:
-            print("fuzz.%s: found %s" % (args.name, os.path.join(artifacts, name)))
+            path = os.path.join(artifacts, name)
+            with open(path, "rb") as f:
+                data = f.read()
+            print("fuzz.%s: found %s (%d bytes), as a Python bytes literal:\n%r" % (
+                args.name, path, len(data), data[:4000]))
         print("fuzz.%s: the fuzzer stopped with exit %d; copy the input to tests/fuzz/regressions/%s/, "
               "reproduce it with '%s INPUT', fix it and keep it as a regression (full output: %s)" % (
                   args.name, returncode, args.name, args.fuzzer, log_path))
