@@ -323,8 +323,16 @@ class NestedStudy(unittest.TestCase):
             e = p2["regions.%s.temperature.mean" % name]
             self.assertAlmostEqual(e["observed_order"], 4.0, delta=0.5, msg=name)
             self.assertAlmostEqual(e["extrapolated"], exact, delta=1e-4, msg=name)
+        # At the probes the 10-node levels already agree to about 1e-4 K, where the
+        # differences between levels are near the Newton tolerance and may change sign:
+        # the study then rightly gives no extrapolation (about one run in ten on Gmsh's
+        # unrepeatable base meshes). The finest value is checked always, the
+        # extrapolated one where there is one.
         for name, exact in C20_PROBES.items():
-            self.assertAlmostEqual(p2["probes.%s.temperature" % name]["extrapolated"], exact, delta=1e-3, msg=name)
+            probe = p2["probes.%s.temperature" % name]
+            self.assertAlmostEqual(probe["values"][-1], exact, delta=1e-3, msg=name)
+            if probe["extrapolated"] is not None:
+                self.assertAlmostEqual(probe["extrapolated"], exact, delta=1e-3, msg=name)
         for name, c in top["comparison"].items():
             v1, v2 = c["finest"]["order_1"], c["finest"]["order_2"]
             self.assertAlmostEqual(c["relative_difference"], (v2 - v1) / abs(v2), places=12, msg=name)

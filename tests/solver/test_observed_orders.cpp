@@ -132,14 +132,14 @@ TEST(ObservedOrders, FourNodeElementsOnNestedLevels) {
   EXPECT_NEAR(q.extrapolated, exact_heat_rate, 1e-4);  // closed form above
   expect_band_holds(levels, q, &LevelValues::heat_rate, exact_heat_rate);
   // The mean's h^2 term is a sum of local contributions of both signs that nearly
-  // cancels on some meshes (observed orders 1.5 to 2.0 over several base meshes), so
-  // only its extrapolated value and its band are checked with 4-node elements.
-  const ConvergenceEstimate mean = estimate(levels, &LevelValues::mean, 1);
-  EXPECT_NEAR(mean.extrapolated, exact_mean, 1e-4 * exact_mean);  // closed form above
-  // The band is a 95 % statement; with the mean's scattered order it missed on about one
-  // base mesh in five by up to 2x, so it is checked at the factor of safety 3 that
-  // Roache gives for an order not shown to be asymptotic (from memory): 2.4x the 1.25 band.
-  expect_band_holds(levels, mean, &LevelValues::mean, exact_mean, 3.0 / 1.25);
+  // cancels on some meshes: its errors, a few 1e-5, change sign between levels on about
+  // one base mesh in five (observed orders 1.5 to 2.0, or none), so no order, no
+  // extrapolation and no band are asked of it with 4-node elements. Instead, on every
+  // level, |mean_h - mean| = |int (T_h - T) dV| / V <= ||T_h - T||_L2 / sqrt(V) by the
+  // Cauchy-Schwarz inequality (V = 1 here), and the finest mean within 1e-4 of the
+  // closed form (common practice, no source; 2.5e-5 seen).
+  for (const LevelValues& v : levels) EXPECT_LE(std::abs(v.mean - exact_mean), v.l2_error) << "h " << v.h;
+  EXPECT_NEAR(levels.back().mean, exact_mean, 1e-4 * exact_mean);  // closed form above
   const ConvergenceEstimate centre = estimate(levels, &LevelValues::centre, 1);
   expect_band_holds(levels, centre, &LevelValues::centre, exact_centre);  // closed form above
   const ConvergenceEstimate l2 = estimate(levels, &LevelValues::l2_error, 1);
