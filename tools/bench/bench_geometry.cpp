@@ -32,13 +32,14 @@ std::string file_text(const std::string& path) {
 BenchGeometry bench_geometry(const std::string& name) {
   if (name == "box")
     return {"box", "unit box, k = 1, T fixed on x = 0, uniform source", box_script,
-            {0.03, 0.02, 0.0135, 0.009, 0.0072}, {0.06, 0.04, 0.027, 0.018, 0.0144}};
+            {0.03, 0.02, 0.0135, 0.009, 0.0072}, {0.06, 0.04, 0.027, 0.018, 0.0144}, "", 0.0};
   if (name == "lining")
     return {"lining",
             "lining panel 1 x 1 x 0.45 m: refractory k = 1, board k = 0.05, steel shell and anchor k = 50; "
             "hot face 1000 degC, cold face h = 10 W/(m2 K) to 27 degC",
             file_text(std::string(HEARTH_BENCH_DIR) + "/lining_panel/lining.geo"),
-            {0.019, 0.012, 0.0088, 0.0069, 0.0054}, {0.038, 0.024, 0.0176, 0.0138, 0.0108}};
+            {0.019, 0.012, 0.0088, 0.0069, 0.0054}, {0.038, 0.024, 0.0176, 0.0138, 0.0108},
+            "anchor", 0.012};  // a third of the anchor's radius
   throw std::invalid_argument("unknown bench geometry '" + name + "' (box or lining)");
 }
 

@@ -16,6 +16,10 @@ struct BenchGeometry {
   // Default ladder of element sizes (m) for P1 and for P2, from about 50 thousand to
   // about 2 million unknowns.
   std::vector<double> p1_sizes, p2_sizes;
+  // 10-node elements only: a local size (m) for a curved region, so that its curved
+  // elements keep a positive Jacobian at the coarse end of the ladder; 0: none.
+  std::string curved_region;
+  double curved_region_size = 0.0;
 };
 
 // "box": the unit box of the reference figures (k = 1, T fixed on x = 0, uniform source).
