@@ -1014,17 +1014,14 @@ void check_transient(const Reader& reader, const YAML::Node& analysis, Case& c) 
   if (!find_entry(analysis, "time_step")) missing("time_step", "the first time step in s, e.g. time_step: 10");
   if (!find_entry(analysis, "initial_temperature"))
     missing("initial_temperature", "a number, {regions: {NAME: number}} or {result: FOLDER}");
+  const Place step_place = reader.place(find_entry(analysis, "time_step")->key, "analysis.time_step");
   // The check against "> 0" let a subnormal step through, whose heat capacity over the
   // step (rho c / dt) is infinite: no solver can use it.
-  if (transient.time_step < 1e-300) {
-    const auto step = find_entry(analysis, "time_step");
-    reader.fail(reader.place(step->key, "analysis.time_step"),
-                number_text(transient.time_step) + " s is too small to step with; give a first step of at least " +
-                    "1e-300 s (in practice a fraction of the duration)");
-  }
+  if (transient.time_step < 1e-300)
+    reader.fail(step_place, number_text(transient.time_step) + " s is too small to step with; give a first step of " +
+                                "at least 1e-300 s (in practice a fraction of the duration)");
   if (transient.time_step > transient.duration) {
-    const auto step = find_entry(analysis, "time_step");
-    reader.fail(reader.place(step->key, "analysis.time_step"),
+    reader.fail(step_place,
                 number_text(transient.time_step) + " s is longer than the duration " +
                     number_text(transient.duration) + " s; give a shorter first step");
   }

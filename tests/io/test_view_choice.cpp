@@ -1,5 +1,6 @@
 // The report's camera choices (io/view_choice.hpp), worked by hand from the rules the
-// header states; no rendering.
+// header states; no rendering. Expected behaviour of our own rules, not results:
+// common practice, no source.
 #include <gtest/gtest.h>
 
 #include <cmath>

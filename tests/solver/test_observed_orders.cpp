@@ -118,9 +118,9 @@ ConvergenceEstimate estimate(const std::vector<LevelValues>& levels, double Leve
 // exact one (with the factor of safety 1.25, in about 95 % of cases: Roache 1998, from
 // memory); on these smooth sequences it must.
 void expect_band_holds(const std::vector<LevelValues>& levels, const ConvergenceEstimate& e, double LevelValues::*field,
-                       double exact_value, double widen = 1.0) {
+                       double exact_value) {
   const double finest = levels.back().*field;
-  EXPECT_LE(std::abs(finest - exact_value), widen * e.gci_fine * std::abs(finest))
+  EXPECT_LE(std::abs(finest - exact_value), e.gci_fine * std::abs(finest))
       << "finest " << finest << ", closed form " << exact_value << ", GCI " << e.gci_fine;
 }
 

@@ -1,5 +1,6 @@
 // Memory estimate of a steady solve (solver/solve_memory.hpp): it names the solver the
-// solve will use, and it is at least the per-unknown figures measured for design.md.
+// solve will use, and it is at least the per-unknown figures measured for design.md
+// (this project's own measurements, no published source).
 #include <gtest/gtest.h>
 
 #include "solver/linear_solver.hpp"
