@@ -10,8 +10,8 @@ namespace hearth {
 namespace {
 
 // Faces of a positively oriented tetrahedron with right-hand normals pointing out of
-// it (VTK's vtkTetra face order), as local vertex numbers.
-constexpr int kOutwardFaces[4][3] = {{0, 1, 3}, {1, 2, 3}, {2, 0, 3}, {0, 2, 1}};
+// it, as local vertex numbers, by the vertex opposite the face.
+constexpr int kOutwardFaces[4][3] = {{1, 2, 3}, {2, 0, 3}, {0, 1, 3}, {0, 2, 1}};
 
 // Local number of the edge node between local vertices a and b (10-node layout).
 int edge_node(int a, int b) {
@@ -21,17 +21,10 @@ int edge_node(int a, int b) {
   return 9;  // (2, 3)
 }
 
-struct ElementFace {
-  SortedTriangle key;
-  std::uint32_t element;
-  std::uint8_t local_face;
-  bool operator<(const ElementFace& other) const { return key < other.key; }
-};
-
-// Appends the outward face `local_face` of element `e` in face_nodes layout.
-void append_outward_face(const Mesh& mesh, std::size_t e, int local_face, std::vector<std::int32_t>& out) {
+// Appends the outward face of element `e` opposite its vertex `opposite`, in face_nodes layout.
+void append_outward_face(const Mesh& mesh, std::size_t e, int opposite, std::vector<std::int32_t>& out) {
   const std::int32_t* t = mesh.tet(e);
-  const int* v = kOutwardFaces[local_face];
+  const int* v = kOutwardFaces[opposite];
   for (int k = 0; k < 3; ++k) out.push_back(t[v[k]]);
   if (mesh.order == 2)
     for (int k = 0; k < 3; ++k) out.push_back(t[edge_node(v[k], v[(k + 1) % 3])]);
@@ -42,37 +35,15 @@ SortedTriangle key_of(const std::int32_t* nodes) { return sorted_triangle(nodes[
 }  // namespace
 
 BodySurface body_surface(const Mesh& mesh) {
-  std::vector<ElementFace> faces;
-  faces.reserve(4 * mesh.n_tets());
-  for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
-    const std::int32_t* t = mesh.tet(e);
-    for (int f = 0; f < 4; ++f) {
-      const int* v = kOutwardFaces[f];
-      faces.push_back({sorted_triangle(t[v[0]], t[v[1]], t[v[2]]), static_cast<std::uint32_t>(e),
-                       static_cast<std::uint8_t>(f)});
-    }
-  }
-  std::sort(faces.begin(), faces.end());
-  // Exterior faces: those that occur once. `claimed` marks the ones a named face or a
-  // contact surface accounts for.
-  std::vector<std::size_t> single;
-  for (std::size_t i = 0; i < faces.size();) {
-    std::size_t j = i + 1;
-    while (j < faces.size() && faces[j].key == faces[i].key) ++j;
-    if (j - i == 1) single.push_back(i);
-    i = j;
-  }
+  const std::vector<ExteriorFace> single = exterior_element_faces(mesh);
+  // `claimed` marks the exterior faces a named face or a contact surface accounts for.
   std::vector<bool> claimed(single.size(), false);
   auto find_single = [&](const SortedTriangle& key) -> std::ptrdiff_t {
     const auto it = std::lower_bound(single.begin(), single.end(), key,
-                                     [&](std::size_t s, const SortedTriangle& k) { return faces[s].key < k; });
-    return it != single.end() && faces[*it].key == key ? it - single.begin() : -1;
+                                     [](const ExteriorFace& s, const SortedTriangle& k) { return s.key < k; });
+    return it != single.end() && it->key == key ? it - single.begin() : -1;
   };
-  auto count_of = [&](const SortedTriangle& key) {
-    const ElementFace probe{key, 0, 0};
-    const auto range = std::equal_range(faces.begin(), faces.end(), probe);
-    return range.second - range.first;
-  };
+  const std::vector<int> elements_of_face = adjacent_tet_counts(mesh);
 
   BodySurface surface;
   surface.nodes_per_face = mesh.nodes_per_face();
@@ -89,10 +60,10 @@ BodySurface body_surface(const Mesh& mesh) {
     const std::ptrdiff_t s = cut ? -1 : find_single(key);
     if (s >= 0) {
       claimed[s] = true;
-      append_outward_face(mesh, faces[single[s]].element, faces[single[s]].local_face, surface.face_nodes);
+      append_outward_face(mesh, single[s].element, single[s].opposite_vertex, surface.face_nodes);
       surface.exterior.push_back(1);
-      surface.face_region.push_back(mesh.tet_region[faces[single[s]].element]);
-    } else if (cut || count_of(key) == 2) {
+      surface.face_region.push_back(mesh.tet_region[single[s].element]);
+    } else if (cut || elements_of_face[f] == 2) {
       surface.face_nodes.insert(surface.face_nodes.end(), nodes, nodes + npf);
       surface.exterior.push_back(0);
       surface.face_region.push_back(-1);
@@ -103,9 +74,9 @@ BodySurface body_surface(const Mesh& mesh) {
   }
   for (std::size_t s = 0; s < single.size(); ++s) {
     if (claimed[s]) continue;
-    append_outward_face(mesh, faces[single[s]].element, faces[single[s]].local_face, surface.face_nodes);
+    append_outward_face(mesh, single[s].element, single[s].opposite_vertex, surface.face_nodes);
     surface.exterior.push_back(1);
-    surface.face_region.push_back(mesh.tet_region[faces[single[s]].element]);
+    surface.face_region.push_back(mesh.tet_region[single[s].element]);
     surface.face_boundary.push_back(-1);
   }
   return surface;

@@ -32,7 +32,7 @@ struct BodySurface {
   const std::int32_t* face(std::size_t f) const { return &face_nodes[f * nodes_per_face]; }
 };
 
-// Collects the body's surface. Cost: sorts 4 triangles per element.
+// Collects the body's surface (mesh_topology's exterior faces and face counts).
 BodySurface body_surface(const Mesh& mesh);
 
 }  // namespace hearth

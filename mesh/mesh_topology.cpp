@@ -1,68 +1,71 @@
 // Face adjacency of a tetrahedral mesh.
 #include "mesh/mesh_topology.hpp"
 
+#include <omp.h>
+
 #include <algorithm>
 
 namespace hearth {
-namespace {
 
-// The four vertex faces of every element, each sorted, the list sorted. A counting
-// sort on the smallest vertex, then a sort of each node's few faces (about 24): the
-// order of one std::sort of the whole list, without its log factor and cache misses
-// (it took 8 % of a million-node run's time as one sort of 21 million triangles).
-std::vector<SortedTriangle> all_tet_faces(const Mesh& mesh) {
-  static constexpr int kFaceVertices[4][3] = {{0, 1, 2}, {0, 1, 3}, {0, 2, 3}, {1, 2, 3}};
+std::vector<ExteriorFace> exterior_element_faces(const Mesh& mesh) {
+  // Every face is listed at its smallest vertex: node -> elements (vertices only), then
+  // each node's faces that start at it, sorted (a few dozen), the single ones kept. Each
+  // thread takes one contiguous block of nodes, so the blocks joined in order are sorted.
   const std::size_t n_nodes = mesh.n_nodes();
-  std::vector<std::size_t> start(n_nodes + 1, 0);
-  for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
-    const std::int32_t* t = mesh.tet(e);
-    for (const auto& f : kFaceVertices) ++start[std::min({t[f[0]], t[f[1]], t[f[2]]}) + 1];
-  }
+  std::vector<std::int64_t> start(n_nodes + 1, 0);
+  for (std::size_t e = 0; e < mesh.n_tets(); ++e)
+    for (int a = 0; a < 4; ++a) ++start[mesh.tet(e)[a] + 1];
   for (std::size_t i = 0; i < n_nodes; ++i) start[i + 1] += start[i];
-  std::vector<SortedTriangle> faces(4 * mesh.n_tets());
-  std::vector<std::size_t> fill(start.begin(), start.end() - 1);
-  for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
-    const std::int32_t* t = mesh.tet(e);
-    for (const auto& f : kFaceVertices) {
-      const SortedTriangle face = sorted_triangle(t[f[0]], t[f[1]], t[f[2]]);
-      faces[fill[face[0]]++] = face;
+  std::vector<std::int32_t> node_elements(static_cast<std::size_t>(start[n_nodes]));
+  {
+    std::vector<std::int64_t> fill(start.begin(), start.end() - 1);
+    for (std::size_t e = 0; e < mesh.n_tets(); ++e)
+      for (int a = 0; a < 4; ++a) node_elements[fill[mesh.tet(e)[a]]++] = static_cast<std::int32_t>(e);
+  }
+  const int threads = omp_get_max_threads();
+  std::vector<std::vector<ExteriorFace>> blocks(threads);
+#pragma omp parallel num_threads(threads)
+  {
+    const int t = omp_get_thread_num();
+    const std::int64_t first = static_cast<std::int64_t>(n_nodes) * t / threads;
+    const std::int64_t last = static_cast<std::int64_t>(n_nodes) * (t + 1) / threads;
+    std::vector<ExteriorFace> local;
+    for (std::int64_t i = first; i < last; ++i) {
+      local.clear();
+      for (std::int64_t p = start[i]; p < start[i + 1]; ++p) {
+        const std::int32_t e = node_elements[p];
+        const std::int32_t* v = mesh.tet(static_cast<std::size_t>(e));
+        for (int k = 0; k < 4; ++k) {
+          const SortedTriangle key = sorted_triangle(v[kTetFaceVertices[k][0]], v[kTetFaceVertices[k][1]], v[kTetFaceVertices[k][2]]);
+          if (key[0] == i) local.push_back({key, e, kTetFaceOpposite[k]});
+        }
+      }
+      std::sort(local.begin(), local.end(), [](const ExteriorFace& a, const ExteriorFace& b) { return a.key < b.key; });
+      for (std::size_t j = 0; j < local.size();) {
+        std::size_t k = j + 1;
+        while (k < local.size() && local[k].key == local[j].key) ++k;
+        if (k - j == 1) blocks[t].push_back(local[j]);
+        j = k;
+      }
     }
   }
-  for (std::size_t i = 0; i < n_nodes; ++i)
-    std::sort(faces.begin() + static_cast<std::ptrdiff_t>(start[i]),
-              faces.begin() + static_cast<std::ptrdiff_t>(start[i + 1]));
+  std::vector<ExteriorFace> faces;
+  for (const auto& block : blocks) faces.insert(faces.end(), block.begin(), block.end());
   return faces;
 }
 
-}  // namespace
-
-SortedTriangle sorted_triangle(std::int32_t a, std::int32_t b, std::int32_t c) {
-  if (a > b) std::swap(a, b);
-  if (b > c) std::swap(b, c);
-  if (a > b) std::swap(a, b);
-  return {a, b, c};
-}
-
 std::vector<SortedTriangle> exterior_faces(const Mesh& mesh) {
-  const std::vector<SortedTriangle> faces = all_tet_faces(mesh);
-  std::vector<SortedTriangle> exterior;
-  for (std::size_t i = 0; i < faces.size();) {
-    std::size_t j = i + 1;
-    while (j < faces.size() && faces[j] == faces[i]) ++j;
-    if (j - i == 1) exterior.push_back(faces[i]);
-    i = j;
-  }
-  return exterior;
+  std::vector<SortedTriangle> keys;
+  for (const ExteriorFace& face : exterior_element_faces(mesh)) keys.push_back(face.key);
+  return keys;
 }
 
 std::vector<int> adjacent_tet_counts(const Mesh& mesh) {
-  const std::vector<SortedTriangle> faces = all_tet_faces(mesh);
-  std::vector<int> counts(mesh.n_faces());
-  for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
-    const std::int32_t* v = mesh.face(f);
-    const auto range = std::equal_range(faces.begin(), faces.end(), sorted_triangle(v[0], v[1], v[2]));
-    counts[f] = static_cast<int>(range.second - range.first);
-  }
+  std::vector<int> counts(mesh.n_faces(), 0);
+  for_each_boundary_face_of_elements(mesh, [&](std::size_t f, std::int32_t, int) {
+#pragma omp atomic
+    ++counts[f];
+  });
   return counts;
 }
 

@@ -6,19 +6,25 @@
 #include <cstdint>
 #include <vector>
 
+#include "mesh/boundary_face_lookup.hpp"  // SortedTriangle, FaceElements, boundary_face_elements
 #include "mesh/mesh.hpp"
 
 namespace hearth {
 
-// A triangle by its three vertex node numbers in increasing order.
-using SortedTriangle = std::array<std::int32_t, 3>;
+// A face of the body's outside: its sorted vertex triangle, the one element it is a
+// face of, and that element's vertex (local number 0..3) opposite it.
+struct ExteriorFace {
+  SortedTriangle key;
+  std::int32_t element;
+  std::int32_t opposite_vertex;
+};
 
-// The triangle through vertices a, b, c with its numbers sorted.
-SortedTriangle sorted_triangle(std::int32_t a, std::int32_t b, std::int32_t c);
+// The exterior faces of the body (vertex triangles that are a face of exactly one
+// tetrahedron) sorted by key, so that a binary search finds one. Cost: one pass over
+// each node's elements, in parallel; no list of all element faces.
+std::vector<ExteriorFace> exterior_element_faces(const Mesh& mesh);
 
-// The exterior faces of the body: vertex triangles that are a face of exactly one
-// tetrahedron, sorted lexicographically (so that std::binary_search finds one).
-// Cost: sorts 4 triangles per element.
+// The keys of exterior_element_faces.
 std::vector<SortedTriangle> exterior_faces(const Mesh& mesh);
 
 // For every boundary triangle of `mesh.face_nodes`, the number of tetrahedra it is a

@@ -5,8 +5,8 @@
 #include <cmath>
 #include <limits>
 #include <omp.h>
-#include <unordered_map>
 
+#include "mesh/boundary_face_lookup.hpp"
 #include "solver/assembler.hpp"
 #include "solver/local_terms.hpp"
 #include "solver/quadrature.hpp"
@@ -14,22 +14,6 @@
 namespace hearth {
 
 namespace {
-
-constexpr int tet_face_vertices[4][3] = {{0, 1, 2}, {0, 1, 3}, {0, 2, 3}, {1, 2, 3}};
-constexpr int tet_face_opposite[4] = {3, 2, 1, 0};
-
-struct TripleHash {
-  std::size_t operator()(const std::array<std::int32_t, 3>& k) const {
-    std::size_t h = std::hash<std::int64_t>()((std::int64_t(k[0]) << 32) ^ k[1]);
-    return h ^ (std::hash<std::int32_t>()(k[2]) + 0x9e3779b97f4a7c15ULL + (h << 6) + (h >> 2));
-  }
-};
-
-std::array<std::int32_t, 3> sorted_triple(std::int32_t a, std::int32_t b, std::int32_t c) {
-  std::array<std::int32_t, 3> k{a, b, c};
-  std::sort(k.begin(), k.end());
-  return k;
-}
 
 Point sub(const Point& a, const Point& b) { return {a[0] - b[0], a[1] - b[1], a[2] - b[2]}; }
 double dot(const Point& a, const Point& b) { return a[0] * b[0] + a[1] * b[1] + a[2] * b[2]; }
@@ -46,31 +30,6 @@ Point face_area_normal(const Mesh& mesh, std::size_t f) {
 int volume_degree(const TetGeometry& g) { return g.affine() ? g.order : 4; }
 
 }  // namespace
-
-std::vector<std::array<std::int32_t, 2>> face_neighbours(const Mesh& mesh) {
-  std::unordered_map<std::array<std::int32_t, 3>, std::vector<std::int32_t>, TripleHash> faces_by_key;
-  faces_by_key.reserve(mesh.n_faces() * 2);
-  for (std::size_t f = 0; f < mesh.n_faces(); ++f) {
-    const std::int32_t* n = mesh.face(f);
-    faces_by_key[sorted_triple(n[0], n[1], n[2])].push_back(static_cast<std::int32_t>(f));
-  }
-  std::vector<std::array<std::int32_t, 2>> neighbours(mesh.n_faces(), {-1, -1});
-  std::vector<Point> normals(mesh.n_faces());
-  for (std::size_t f = 0; f < mesh.n_faces(); ++f) normals[f] = face_area_normal(mesh, f);
-  for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
-    const std::int32_t* n = mesh.tet(e);
-    for (int k = 0; k < 4; ++k) {
-      const auto it = faces_by_key.find(
-          sorted_triple(n[tet_face_vertices[k][0]], n[tet_face_vertices[k][1]], n[tet_face_vertices[k][2]]));
-      if (it == faces_by_key.end()) continue;
-      for (const std::int32_t f : it->second) {
-        const double side = dot(sub(mesh.node(n[tet_face_opposite[k]]), mesh.node(mesh.face(f)[0])), normals[f]);
-        neighbours[f][side < 0 ? 0 : 1] = static_cast<std::int32_t>(e);
-      }
-    }
-  }
-  return neighbours;
-}
 
 std::vector<double> nodal_residual(const Mesh& mesh, const ThermalProblem& problem,
                                    const std::vector<double>& temperature, const std::vector<char>* element_mask,
@@ -408,7 +367,7 @@ Results post_process(const Mesh& mesh, const ThermalProblem& problem, const std:
   }
 
   // Boundaries: area, area-averaged temperature, extremes, heat rates.
-  const auto neighbours = face_neighbours(mesh);
+  const auto neighbours = boundary_face_elements(mesh);
   out.boundaries.resize(mesh.boundaries.size());
   std::vector<double> bt_integral(mesh.boundaries.size(), 0.0);
   std::vector<char> bfirst(mesh.boundaries.size(), 1);

@@ -42,8 +42,4 @@ double storage_rate(const Mesh& mesh, const ThermalProblem& problem, const std::
 // Volume of each region, m3.
 std::vector<double> region_volumes(const Mesh& mesh);
 
-// For each face, the elements on either side: {behind, in front} of its normal;
-// -1 where there is none (exterior faces have one).
-std::vector<std::array<std::int32_t, 2>> face_neighbours(const Mesh& mesh);
-
 }  // namespace hearth

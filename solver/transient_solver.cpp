@@ -10,6 +10,7 @@
 #include <deque>
 #include <memory>
 
+#include "mesh/boundary_face_lookup.hpp"
 #include "solver/assembler.hpp"
 #include "solver/dof_map.hpp"
 #include "solver/post_processing.hpp"
@@ -249,7 +250,7 @@ TransientSolution solve_transient(const Mesh& mesh, const TransientProblem& prob
                      settings.reuse_linear_solver);
   solution.dofs = stepper.dofs().n_free();
   solution.linear_solver = stepper.solver_name();
-  const auto neighbours = face_neighbours(mesh);
+  const auto neighbours = boundary_face_elements(mesh);
   const std::vector<double> volumes = region_volumes(mesh);
 
   std::deque<Level> levels{{0.0, initial}};
