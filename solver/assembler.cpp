@@ -64,38 +64,66 @@ void Assembler::build_pattern() {
   const std::int32_t n = dofs_.n_free();
   pattern_.n = n;
   pattern_.row_ptr.assign(n + 1, 0);
-  std::vector<std::vector<std::int32_t>> rows_cols(n);
+  // Two passes over the rows, each in parallel: count each row's columns, then list
+  // and sort them in place and, while the row's column positions are at hand, write
+  // the element position map for it (no per-row vectors, no binary searches).
+  auto for_each_column = [&](std::int32_t node, auto&& visit) {
+    for (std::int64_t p = start[node]; p < start[node + 1]; ++p) {
+      const std::int32_t* nodes = mesh_.tet(node_tets[p]);
+      for (int b = 0; b < npe; ++b) visit(dofs_.free_index[nodes[b]]);
+    }
+    for (std::int64_t p = cstart[node]; p < cstart[node + 1]; ++p)
+      for (int b = 0; b < npf; ++b) {
+        visit(dofs_.free_index[mesh_.face(node_contacts[p])[b]]);
+        visit(dofs_.free_index[mesh_.face_twin(node_contacts[p])[b]]);
+      }
+  };
 #pragma omp parallel num_threads(threads_)
   {
     std::vector<std::int32_t> marker(n, -1);
-#pragma omp for schedule(dynamic, 1024)
+#pragma omp for schedule(dynamic, 4096)
     for (std::int32_t r = 0; r < n; ++r) {
-      const std::int32_t node = dofs_.free_nodes[r];
-      auto& cols = rows_cols[r];
-      auto add_columns = [&](const std::int32_t* nodes, int count) {
-        for (int b = 0; b < count; ++b) {
-          const std::int32_t c = dofs_.free_index[nodes[b]];
-          if (c >= 0 && marker[c] != r) {
-            marker[c] = r;
-            cols.push_back(c);
-          }
-        }
-      };
-      for (std::int64_t p = start[node]; p < start[node + 1]; ++p) add_columns(mesh_.tet(node_tets[p]), npe);
-      for (std::int64_t p = cstart[node]; p < cstart[node + 1]; ++p) {
-        add_columns(mesh_.face(node_contacts[p]), npf);
-        add_columns(mesh_.face_twin(node_contacts[p]), npf);
-      }
-      std::sort(cols.begin(), cols.end());
+      std::int64_t count = 0;
+      for_each_column(dofs_.free_nodes[r], [&](std::int32_t c) {
+        if (c >= 0 && marker[c] != r) marker[c] = r, ++count;
+      });
+      pattern_.row_ptr[r + 1] = count;
     }
   }
-  for (std::int32_t r = 0; r < n; ++r) pattern_.row_ptr[r + 1] = pattern_.row_ptr[r] + rows_cols[r].size();
+  for (std::int32_t r = 0; r < n; ++r) pattern_.row_ptr[r + 1] += pattern_.row_ptr[r];
   if (pattern_.row_ptr[n] > std::int64_t(2147483647))
     throw std::runtime_error("matrix has more than 2^31 nonzeros; the mesh is too large for one process");
   pattern_.col.resize(pattern_.row_ptr[n]);
-  for (std::int32_t r = 0; r < n; ++r) {
-    std::copy(rows_cols[r].begin(), rows_cols[r].end(), pattern_.col.begin() + pattern_.row_ptr[r]);
-    std::vector<std::int32_t>().swap(rows_cols[r]);
+  tet_positions_.resize(mesh_.n_tets() * npe * npe);
+  const std::int64_t n_nodes64 = static_cast<std::int64_t>(n_nodes);
+#pragma omp parallel num_threads(threads_)
+  {
+    std::vector<std::int32_t> marker(n, -1), position(n, -1);
+#pragma omp for schedule(dynamic, 4096)
+    for (std::int64_t node = 0; node < n_nodes64; ++node) {
+      const std::int32_t r = dofs_.free_index[node];
+      if (r >= 0) {
+        std::int64_t fill = pattern_.row_ptr[r];
+        for_each_column(static_cast<std::int32_t>(node), [&](std::int32_t c) {
+          if (c >= 0 && marker[c] != r) marker[c] = r, pattern_.col[fill++] = c;
+        });
+        std::sort(pattern_.col.begin() + pattern_.row_ptr[r], pattern_.col.begin() + pattern_.row_ptr[r + 1]);
+        for (std::int64_t k = pattern_.row_ptr[r]; k < pattern_.row_ptr[r + 1]; ++k)
+          position[pattern_.col[k]] = static_cast<std::int32_t>(k);
+      }
+      // This node's row of each of its elements' local maps; a fixed node's row is -1.
+      for (std::int64_t p = start[node]; p < start[node + 1]; ++p) {
+        const std::int32_t e = node_tets[p];
+        const std::int32_t* nodes = mesh_.tet(e);
+        int a = 0;
+        while (nodes[a] != node) ++a;
+        std::int32_t* out = &tet_positions_[(std::size_t(e) * npe + a) * npe];
+        for (int b = 0; b < npe; ++b) {
+          const std::int32_t c = dofs_.free_index[nodes[b]];
+          out[b] = (r >= 0 && c >= 0) ? position[c] : -1;
+        }
+      }
+    }
   }
 }
 
@@ -118,13 +146,9 @@ void fill_positions(const CsrMatrix& m, const DofMap& dofs, const std::int32_t* 
 }  // namespace
 
 void Assembler::build_positions() {
-  const int npe = mesh_.nodes_per_tet(), npf = mesh_.nodes_per_face();
-  tet_positions_.resize(mesh_.n_tets() * npe * npe);
+  const int npf = mesh_.nodes_per_face();
+  // The elements' maps were written with the pattern (build_pattern).
   face_positions_.resize(mesh_.n_faces() * npf * npf);
-  const std::int64_t n_tets = static_cast<std::int64_t>(mesh_.n_tets());
-#pragma omp parallel for schedule(static) num_threads(threads_)
-  for (std::int64_t e = 0; e < n_tets; ++e)
-    fill_positions(pattern_, dofs_, mesh_.tet(e), npe, &tet_positions_[e * npe * npe]);
   for (std::size_t f = 0; f < mesh_.n_faces(); ++f)
     fill_positions(pattern_, dofs_, mesh_.face(f), npf, &face_positions_[f * npf * npf]);
   for (std::size_t f = 0; f < mesh_.n_faces(); ++f) {
