@@ -172,6 +172,7 @@ struct Case {
   Place output_place;                      // the output.directory key (line 0 for the default)
   bool output_report = false;              // output.report: make the report after the run
   bool report_mesh_edges = false;          // output.report_mesh_edges
+  std::string output_compression = "lz4";  // output.compression: lz4 | zlib | none
   // Warnings found while reading ("case.yaml:9: materials.board.conductivity.axis_2: ...");
   // the driver prints them and puts them in summary.json.
   std::vector<std::string> warnings;

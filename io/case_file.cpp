@@ -1186,6 +1186,7 @@ void read_probes_lines_output(const Reader& reader, const YAML::Node& root, Case
   c.output_place = directory ? reader.place(directory->key, "output.directory") : Place{reader.file, 0, "output.directory", ""};
   c.output_report = value_or_default(output, "report", "output.report").as<bool>();
   c.report_mesh_edges = value_or_default(output, "report_mesh_edges", "output.report_mesh_edges").as<bool>();
+  c.output_compression = value_or_default(output, "compression", "output.compression").Scalar();
 }
 
 }  // namespace

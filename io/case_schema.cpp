@@ -113,6 +113,7 @@ const std::vector<KeySpec> schema_table = {
     {"output.directory", K::path, false, "results", "", any_value, "", "results folder, relative to this file unless --out is given", "", ""},
     {"output.report", K::boolean, false, "false", "", any_value, "", "also make the report at the end of the run (pictures, plots and report.html, as hearth report does)", "", ""},
     {"output.report_mesh_edges", K::boolean, false, "false", "", any_value, "", "draw the element edges on the report's surface pictures", "", ""},
+    {"output.compression", K::choice, false, "lz4", "lz4|zlib|none", any_value, "", "compression of the binary VTK files: lz4 (fast to write and read), zlib (about a quarter smaller, some fifteen times slower to write) or none", "", ""},
 };
 
 std::string parent_of(const std::string& key) {

@@ -34,6 +34,6 @@ constexpr int unnamed_surface_tag = 0;
 // came from. Field data "boundary_names", "boundary_tags" (in step), "region_names",
 // "region_tags", "units" and "title". Written to a temporary name, then renamed.
 void write_surface_vtp(const std::filesystem::path& path, const Mesh& mesh, const BodySurface& surface,
-                       const Units& units, const SurfaceFields& fields, VtkEncoding encoding = VtkEncoding::binary);
+                       const Units& units, const SurfaceFields& fields, VtkEncoding encoding = VtkEncoding::lz4);
 
 }  // namespace hearth

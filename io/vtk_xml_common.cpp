@@ -14,6 +14,13 @@
 
 namespace hearth {
 
+VtkEncoding vtk_encoding(const std::string& compression, bool ascii) {
+  if (ascii) return VtkEncoding::ascii;
+  if (compression == "zlib") return VtkEncoding::zlib;
+  if (compression == "none") return VtkEncoding::uncompressed;
+  return VtkEncoding::lz4;
+}
+
 void configure_xml_writer(vtkXMLWriter& writer, VtkEncoding encoding) {
   writer.SetHeaderTypeToUInt64();
   if (encoding == VtkEncoding::ascii) {
@@ -23,7 +30,9 @@ void configure_xml_writer(vtkXMLWriter& writer, VtkEncoding encoding) {
   }
   writer.SetDataModeToAppended();
   writer.EncodeAppendedDataOff();
-  writer.SetCompressorTypeToZLib();
+  if (encoding == VtkEncoding::lz4) writer.SetCompressorTypeToLZ4();
+  else if (encoding == VtkEncoding::zlib) writer.SetCompressorTypeToZLib();
+  else writer.SetCompressorTypeToNone();
 }
 
 void run_xml_writer(vtkXMLWriter& writer, const std::filesystem::path& path) {

@@ -12,8 +12,14 @@ class vtkXMLWriter;
 
 namespace hearth {
 
-// Binary (appended, zlib-compressed, 64-bit headers) or, for reading by eye, ASCII.
-enum class VtkEncoding { binary, ascii };
+// Binary (appended raw, 64-bit headers) compressed with LZ4 or zlib or not at all, or,
+// for reading by eye, ASCII. LZ4 is the default: a million-node result (420 MB of
+// arrays) took 0.8 s to write with it and 13 s with zlib, for a file a third larger
+// (260 MB against 190 MB).
+enum class VtkEncoding { lz4, zlib, uncompressed, ascii };
+
+// The encoding for output.compression ("lz4", "zlib" or "none") unless `ascii` (--ascii).
+VtkEncoding vtk_encoding(const std::string& compression, bool ascii);
 
 void configure_xml_writer(vtkXMLWriter& writer, VtkEncoding encoding);
 

@@ -1,4 +1,4 @@
-// temperature.vtu and mesh.vtu through VTK's XML writer (binary, zlib-compressed).
+// temperature.vtu and mesh.vtu through VTK's XML writer (binary, LZ4-compressed by default).
 #pragma once
 
 #include <filesystem>
@@ -31,6 +31,6 @@ struct VtuFields {
 // "boundary_face_index", "boundary_names", "boundary_tags") and the requested fields.
 // Written to a temporary name, then renamed.
 void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units& units, const VtuFields& fields,
-               VtkEncoding encoding = VtkEncoding::binary);
+               VtkEncoding encoding = VtkEncoding::lz4);
 
 }  // namespace hearth

@@ -225,6 +225,8 @@ const std::vector<Override>& overrides() {
       {"output.report", {"output.report=true"}, [](const Case& c) { EXPECT_TRUE(c.output_report); }},
       {"output.report_mesh_edges", {"output.report_mesh_edges=true"},
        [](const Case& c) { EXPECT_TRUE(c.report_mesh_edges); }},
+      {"output.compression", {"output.compression=zlib"},
+       [](const Case& c) { EXPECT_EQ(c.output_compression, "zlib"); }},
   };
   return table;
 }

@@ -1,6 +1,11 @@
 // The VTU writer's ASCII form and its field data (read as text: VTK's XML format is
-// plain text with --ascii).
+// plain text with --ascii), and its binary forms read back through VTK's own reader.
 #include <gtest/gtest.h>
+#include <vtkDataArray.h>
+#include <vtkNew.h>
+#include <vtkPointData.h>
+#include <vtkUnstructuredGrid.h>
+#include <vtkXMLUnstructuredGridReader.h>
 
 #include <filesystem>
 #include <fstream>
@@ -68,6 +73,47 @@ TEST(VtuWriter, AsciiFileCarriesNamesUnitsTitleAndTime) {
             (std::vector<std::string>{"length=m", "temperature=degC", "heat_flux=W/m2"}));
   // Temperatures in degC (the default unit): 100 at three corners, 0 at the fourth.
   EXPECT_TRUE(std::regex_search(text, std::regex("Name=\"temperature\"[^>]*>\\s*100 100 100 0\\s")));
+}
+
+// Each binary encoding (output.compression) names its compressor in the header, as
+// VTK's XML format defines (VTK file-format documentation, "compressor" attribute of
+// VTKFile), and reads back through VTK's reader to the same numbers.
+TEST(VtuWriter, EveryBinaryEncodingReadsBackThroughVtk) {
+  struct Case { VtkEncoding encoding; const char* compressor; };
+  const Case cases[] = {{VtkEncoding::lz4, "vtkLZ4DataCompressor"},
+                        {VtkEncoding::zlib, "vtkZLibDataCompressor"},
+                        {VtkEncoding::uncompressed, nullptr}};
+  const std::vector<double> temperature = {373.15, 350.0, 300.0, 273.15};  // K
+  VtuFields fields;
+  fields.temperature = &temperature;
+  std::random_device random;
+  for (const Case& c : cases) {
+    const fs::path file = fs::temp_directory_path() / ("hearth_test_vtu_" + std::to_string(random()) + ".vtu");
+    write_vtu(file, one_tet(), Units{}, fields, c.encoding);
+    const std::string text = read(file);
+    const std::string header = text.substr(0, text.find("<AppendedData"));
+    if (c.compressor) EXPECT_NE(header.find(std::string("compressor=\"") + c.compressor + "\""), std::string::npos) << c.compressor;
+    else EXPECT_EQ(header.find("compressor="), std::string::npos);
+    vtkNew<vtkXMLUnstructuredGridReader> reader;
+    reader->SetFileName(file.string().c_str());
+    reader->Update();
+    fs::remove(file);
+    vtkUnstructuredGrid* grid = reader->GetOutput();
+    ASSERT_EQ(grid->GetNumberOfPoints(), 4);
+    ASSERT_EQ(grid->GetNumberOfCells(), 1);
+    vtkDataArray* t = grid->GetPointData()->GetArray("temperature");
+    ASSERT_NE(t, nullptr);
+    // Degrees Celsius, the default unit: K - 273.15.
+    for (int i = 0; i < 4; ++i) EXPECT_NEAR(t->GetTuple1(i), temperature[i] - 273.15, 1e-12);
+  }
+}
+
+// output.compression's values map to the encodings; --ascii wins over any of them.
+TEST(VtuWriter, CompressionKeyChoosesTheEncoding) {
+  EXPECT_EQ(vtk_encoding("lz4", false), VtkEncoding::lz4);
+  EXPECT_EQ(vtk_encoding("zlib", false), VtkEncoding::zlib);
+  EXPECT_EQ(vtk_encoding("none", false), VtkEncoding::uncompressed);
+  EXPECT_EQ(vtk_encoding("zlib", true), VtkEncoding::ascii);
 }
 
 }  // namespace

@@ -41,7 +41,7 @@ int mesh_command(const CommonOptions& options) {
   VtuFields fields;
   fields.quality = true;
   staged.fill([&](const std::filesystem::path& dir) {
-    write_vtu(dir / "mesh.vtu", mesh, c.units, fields);
+    write_vtu(dir / "mesh.vtu", mesh, c.units, fields, vtk_encoding(c.output_compression, options.ascii));
     write_summary(dir / "mesh.json", figures);
   });
   staged.commit();

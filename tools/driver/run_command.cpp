@@ -32,7 +32,7 @@ namespace {
 void write_results(const Case& c, const Mesh& mesh, const std::vector<double>& temperature, const RunRecord& record,
                    const std::vector<std::vector<LineSample>>& lines, const std::filesystem::path& dir,
                    const char* vtu_name, const CommonOptions& options, double elapsed_seconds) {
-  const VtkEncoding encoding = options.ascii ? VtkEncoding::ascii : VtkEncoding::binary;
+  const VtkEncoding encoding = vtk_encoding(c.output_compression, options.ascii);
   VtuFields fields;
   fields.temperature = &temperature;
   fields.nodal_flux = &record.results.nodal_flux;

@@ -373,7 +373,7 @@ int run_transient(const CommonOptions& options, const Case& c, const std::filesy
     fields.cell_flux = &results.cell_flux;
     fields.time = t;
     fields.title = c.title;
-    write_vtu(dir / name, mesh, c.units, fields, options.ascii ? VtkEncoding::ascii : VtkEncoding::binary);
+    write_vtu(dir / name, mesh, c.units, fields, vtk_encoding(c.output_compression, options.ascii));
     series.push_back({t, name});
     tr.field_files.push_back(name);
     write_time_series(dir / "temperature.pvd", series);
@@ -476,7 +476,7 @@ int run_transient(const CommonOptions& options, const Case& c, const std::filesy
   write_surface_vtp(dir / "surface.vtp", mesh, body_surface(mesh), c.units,
                     {&solution.temperature, record.results.nodal_flux.empty() ? nullptr : &record.results.nodal_flux,
                      c.title},
-                    options.ascii ? VtkEncoding::ascii : VtkEncoding::binary);
+                    vtk_encoding(c.output_compression, options.ascii));
   write_summary(dir / "inputs.json", inputs_json(c));
   write_summary(dir / "run.json", run_provenance(c, options, solution.seconds, progress.elapsed()));
   const auto summary = summary_json(record, c.units);
