@@ -442,6 +442,39 @@ void check_jacobians(const std::string& file, const Mesh& mesh, bool ready_mesh)
                                     (mesh.order == 2 ? ", or order 1" : "")));
 }
 
+// Mesh nodes in all, and those classified on points, curves and surfaces (not inside a volume).
+struct NodeCounts {
+  std::size_t all = 0, below_volumes = 0;
+};
+NodeCounts node_counts() {
+  NodeCounts counts;
+  std::vector<std::size_t> tags;
+  std::vector<double> coords, params;
+  gmsh::model::mesh::getNodes(tags, coords, params, -1, -1, false, false);
+  counts.all = tags.size();
+  for (int dim = 0; dim < 3; ++dim) {
+    std::vector<std::pair<int, int>> entities;
+    gmsh::model::getEntities(entities, dim);
+    for (const auto& [d, tag] : entities) {
+      gmsh::model::mesh::getNodes(tags, coords, params, d, tag, false, false);
+      counts.below_volumes += tags.size();
+    }
+  }
+  return counts;
+}
+
+// Gmsh 4.8's HXT on several threads now and then inserts one interior point twice, which
+// cracks the mesh around it. Where every extra copy lies inside a volume, the copies
+// are merged (removeDuplicateNodes): true when exactly `coincident` nodes went, none of
+// them on a point, curve or surface. Touching volumes that were never fragmented give
+// coincident nodes on their surfaces instead, and stay an error.
+bool merge_interior_duplicates(GmshSession& session, const std::string& file, std::size_t coincident) {
+  const NodeCounts before = node_counts();
+  session.guarded(file, [] { gmsh::model::mesh::removeDuplicateNodes(); });
+  const NodeCounts after = node_counts();
+  return after.below_volumes == before.below_volumes && before.all - after.all == coincident;
+}
+
 struct GmshMeshes {
   std::vector<Mesh> levels;
   std::string algorithm;  // HXT, Delaunay or "read from file"
@@ -503,7 +536,17 @@ GmshMeshes mesh_with_gmsh(const MeshRequest& request, GeometryKind kind, int lev
       throw MeshError(file + ": " + found + ": volumes touch without sharing their faces (fragment them, e.g. " +
                       "BooleanFragments in the script) or Gmsh's mesh is cracked (try a slightly different mesh size)");
     // Gmsh 4.8's HXT now and then inserts the same point twice when it runs on
-    // several threads; on one thread it does not.
+    // several threads; on one thread it does not. Merging the copies costs seconds,
+    // remeshing on one thread about as long again as the meshing.
+    if (merge_interior_duplicates(session, file, coincident)) {
+      Mesh merged = convert();
+      if (count_coincident_nodes(merged) == 0 && find_invalid_elements(merged).count == 0) {
+        session.report("meshing " + short_name + ": HXT on " + std::to_string(threads) + " threads made a cracked mesh (" +
+                       found + ", all inside volumes); merged them");
+        result.levels.push_back(std::move(merged));
+        break;
+      }
+    }
     session.report("meshing " + short_name + ": HXT on " + std::to_string(threads) + " threads made a cracked mesh (" +
                    found + "); remeshing on 1 thread");
     threads = 1;
