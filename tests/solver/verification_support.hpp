@@ -100,7 +100,7 @@ inline Solved solve(const Mesh& mesh, const ThermalProblem& p, LinearSolverKind 
 }
 
 inline double temperature_at(const Mesh& mesh, const std::vector<double>& T, const Point& x) {
-  const PointLocator locator(mesh);
+  const PointLocator locator(mesh, {x});
   const auto hit = locator.locate(x);
   if (!hit) {
     ADD_FAILURE() << "point outside the mesh";

@@ -45,12 +45,7 @@ void check_probes_and_lines(const Case& c, const Mesh& mesh, const PointLocator&
   sample_probes(c, locator, std::vector<double>(mesh.n_nodes(), 0.0));  // throws for a probe outside
   for (const auto& line : c.lines) {
     bool inside = false;
-    for (int k = 0; k < line.points && !inside; ++k) {
-      const double s = line.points > 1 ? double(k) / (line.points - 1) : 0.0;
-      Point p{};
-      for (int d = 0; d < 3; ++d) p[d] = line.from[d] + s * (line.to[d] - line.from[d]);
-      inside = locator.locate(p).has_value();
-    }
+    for (int k = 0; k < line.points && !inside; ++k) inside = locator.locate(line_point(line, k)).has_value();
     if (!inside)
       throw InputError(line.place.str() + ": line '" + line.name + "' from " + point_text(c, line.from) + " to " +
                        point_text(c, line.to) + " " + c.units.length + " has none of its " +

@@ -9,6 +9,7 @@
 #include "tools/driver/case_mesh_checks.hpp"
 #include "tools/driver/commands.hpp"
 #include "tools/driver/memory_check.hpp"
+#include "tools/driver/pipeline.hpp"  // sampled_points
 
 namespace hearth {
 
@@ -21,7 +22,7 @@ int check_command(const CommonOptions& options) {
   if (c.analysis_type != "transient") check_determined(c, mesh, problem);  // stored heat sets the level
   const SolveMemoryEstimate memory = check_solve_memory(c, mesh, problem);
   if (!c.probes.empty() || !c.lines.empty())  // throws for a probe or a whole line outside
-    check_probes_and_lines(c, mesh, PointLocator(mesh));
+    check_probes_and_lines(c, mesh, PointLocator(mesh, sampled_points(c)));
 
   double qmin = 1.0;
   for (double q : mesh.tet_quality) qmin = std::min(qmin, q);

@@ -309,6 +309,21 @@ void check_determined(const Case& c, const Mesh& mesh, const ThermalProblem& pro
                      "undetermined; add a 'temperature' or 'convection' condition to at least one boundary");
 }
 
+Point line_point(const LineSpec& line, int k) {
+  const double s = line.points > 1 ? double(k) / (line.points - 1) : 0.0;
+  Point p{};
+  for (int d = 0; d < 3; ++d) p[d] = line.from[d] + s * (line.to[d] - line.from[d]);
+  return p;
+}
+
+std::vector<Point> sampled_points(const Case& c) {
+  std::vector<Point> points;
+  for (const auto& probe : c.probes) points.push_back(probe.point);
+  for (const auto& line : c.lines)
+    for (int k = 0; k < line.points; ++k) points.push_back(line_point(line, k));
+  return points;
+}
+
 std::vector<ProbeRecord> sample_probes(const Case& c, const PointLocator& locator,
                                        const std::vector<double>& temperature) {
   std::vector<ProbeRecord> out;
@@ -338,7 +353,7 @@ std::vector<std::vector<LineSample>> sample_lines(const Case& c, const PointLoca
     for (int k = 0; k < line.points; ++k) {
       const double s = line.points > 1 ? double(k) / (line.points - 1) : 0.0;
       LineSample sample;
-      for (int d = 0; d < 3; ++d) sample.point[d] = line.from[d] + s * (line.to[d] - line.from[d]);
+      sample.point = line_point(line, k);
       sample.distance = s * length;
       if (const auto hit = locator.locate(sample.point))
         sample.temperature = locator.interpolate(*hit, temperature);

@@ -91,8 +91,14 @@ std::vector<std::string> describe_conditions(const Mesh& mesh, const ThermalProb
 // Names of the exterior boundaries left insulated (no entry in the case).
 std::vector<std::string> insulated_boundaries(const Case& c, const Mesh& mesh);
 
+// Point k of a line's `points` evenly spaced samples, from `from` to `to`.
+Point line_point(const LineSpec& line, int k);
+// Every point the case samples (probes, then each line's points), for the PointLocator
+// to find in one pass.
+std::vector<Point> sampled_points(const Case& c);
+
 // Probes (InputError for one outside the body) and lines (outside points left empty),
-// located with one PointLocator built for the mesh.
+// located with one PointLocator built for the mesh and sampled_points(c).
 std::vector<ProbeRecord> sample_probes(const Case& c, const PointLocator& locator,
                                        const std::vector<double>& temperature);
 std::vector<std::vector<LineSample>> sample_lines(const Case& c, const PointLocator& locator,

@@ -79,7 +79,7 @@ int run_command(const CommonOptions& options) {
   check_determined(c, mesh, problem);
   // One locator for probes and lines; a probe, or a line, outside the body is an error before the solve.
   std::optional<PointLocator> locator;
-  if (!c.probes.empty() || !c.lines.empty()) locator.emplace(mesh);
+  if (!c.probes.empty() || !c.lines.empty()) locator.emplace(mesh, sampled_points(c));
   if (locator) check_probes_and_lines(c, mesh, *locator);
 
   check_solve_memory(c, mesh, problem);  // refuse what the machine cannot hold, before assembling

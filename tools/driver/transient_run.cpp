@@ -334,7 +334,7 @@ int run_transient(const CommonOptions& options, const Case& c, const std::filesy
   check_interrupt("after meshing; nothing was written");
   const TransientProblem problem = transient_problem(c, mesh);
   std::optional<PointLocator> locator;
-  if (!c.probes.empty() || !c.lines.empty()) locator.emplace(mesh);
+  if (!c.probes.empty() || !c.lines.empty()) locator.emplace(mesh, sampled_points(c));
   if (locator) check_probes_and_lines(c, mesh, *locator);  // a probe, or a whole line, outside: error now
   check_solve_memory(c, mesh, problem.base);               // refuse what the machine cannot hold
 
