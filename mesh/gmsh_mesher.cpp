@@ -326,6 +326,9 @@ std::string generate_volume_mesh(GmshSession& session, const MeshRequest& reques
   gmsh::option::setNumber("Mesh.MaxNumThreads1D", 1);
   gmsh::option::setNumber("Mesh.MaxNumThreads2D", 1);
   gmsh::option::setNumber("Mesh.MaxNumThreads3D", threads);
+  // No Laplacian smoothing pass over the surface mesh: it took 5 of the 11 s of surface
+  // meshing at a million nodes, and the volume mesh's own optimisation follows.
+  gmsh::option::setNumber("Mesh.Smoothing", 0);
   gmsh::option::setNumber("Mesh.Algorithm3D", kHxt);
   std::string hxt_failure = "HXT not requested";
   if (request.algorithm != "delaunay") try {
