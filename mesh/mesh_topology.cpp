@@ -9,12 +9,18 @@ namespace hearth {
 
 std::vector<ExteriorFace> exterior_element_faces(const Mesh& mesh) {
   // Every face is listed at its smallest vertex: node -> elements (vertices only), then
-  // each node's faces that start at it, sorted (a few dozen), the single ones kept. Each
-  // thread takes one contiguous block of nodes, so the blocks joined in order are sorted.
+  // each node's faces that start at it (a dozen on average) sorted by an insertion sort
+  // of packed keys, the single ones kept. Each thread takes one contiguous block of
+  // nodes, so the blocks joined in order are sorted.
   const std::size_t n_nodes = mesh.n_nodes();
+  const std::int64_t n_tets = static_cast<std::int64_t>(mesh.n_tets());
   std::vector<std::int64_t> start(n_nodes + 1, 0);
-  for (std::size_t e = 0; e < mesh.n_tets(); ++e)
-    for (int a = 0; a < 4; ++a) ++start[mesh.tet(e)[a] + 1];
+#pragma omp parallel for schedule(static)
+  for (std::int64_t e = 0; e < n_tets; ++e)
+    for (int a = 0; a < 4; ++a) {
+#pragma omp atomic
+      ++start[mesh.tet(static_cast<std::size_t>(e))[a] + 1];
+    }
   for (std::size_t i = 0; i < n_nodes; ++i) start[i + 1] += start[i];
   std::vector<std::int32_t> node_elements(static_cast<std::size_t>(start[n_nodes]));
   {
@@ -22,6 +28,12 @@ std::vector<ExteriorFace> exterior_element_faces(const Mesh& mesh) {
     for (std::size_t e = 0; e < mesh.n_tets(); ++e)
       for (int a = 0; a < 4; ++a) node_elements[fill[mesh.tet(e)[a]]++] = static_cast<std::int32_t>(e);
   }
+  // A face (i, b, c) at node i: b < c packed in one integer, its element and the
+  // element's vertex opposite it.
+  struct LocalFace {
+    std::uint64_t key;
+    std::int32_t element, opposite;
+  };
   const int threads = omp_get_max_threads();
   std::vector<std::vector<ExteriorFace>> blocks(threads);
 #pragma omp parallel num_threads(threads)
@@ -29,22 +41,34 @@ std::vector<ExteriorFace> exterior_element_faces(const Mesh& mesh) {
     const int t = omp_get_thread_num();
     const std::int64_t first = static_cast<std::int64_t>(n_nodes) * t / threads;
     const std::int64_t last = static_cast<std::int64_t>(n_nodes) * (t + 1) / threads;
-    std::vector<ExteriorFace> local;
+    std::vector<LocalFace> local;
     for (std::int64_t i = first; i < last; ++i) {
       local.clear();
       for (std::int64_t p = start[i]; p < start[i + 1]; ++p) {
         const std::int32_t e = node_elements[p];
         const std::int32_t* v = mesh.tet(static_cast<std::size_t>(e));
-        for (int k = 0; k < 4; ++k) {
-          const SortedTriangle key = sorted_triangle(v[kTetFaceVertices[k][0]], v[kTetFaceVertices[k][1]], v[kTetFaceVertices[k][2]]);
-          if (key[0] == i) local.push_back({key, e, kTetFaceOpposite[k]});
+        for (int opposite = 0; opposite < 4; ++opposite) {
+          if (v[opposite] == i) continue;  // the face must contain i
+          std::int32_t other[2], n_other = 0;
+          for (int a = 0; a < 4; ++a)
+            if (a != opposite && v[a] != i) other[n_other++] = v[a];
+          if (other[0] < i || other[1] < i) continue;  // listed at a smaller vertex
+          const auto lo = static_cast<std::uint64_t>(std::min(other[0], other[1]));
+          const auto hi = static_cast<std::uint64_t>(std::max(other[0], other[1]));
+          LocalFace face{lo << 32 | hi, e, opposite};
+          std::size_t j = local.size();
+          local.push_back(face);
+          for (; j > 0 && local[j - 1].key > face.key; --j) local[j] = local[j - 1];
+          local[j] = face;
         }
       }
-      std::sort(local.begin(), local.end(), [](const ExteriorFace& a, const ExteriorFace& b) { return a.key < b.key; });
       for (std::size_t j = 0; j < local.size();) {
         std::size_t k = j + 1;
         while (k < local.size() && local[k].key == local[j].key) ++k;
-        if (k - j == 1) blocks[t].push_back(local[j]);
+        if (k - j == 1)
+          blocks[t].push_back({{static_cast<std::int32_t>(i), static_cast<std::int32_t>(local[j].key >> 32),
+                                static_cast<std::int32_t>(local[j].key & 0xffffffffu)},
+                               local[j].element, local[j].opposite});
         j = k;
       }
     }
