@@ -20,6 +20,7 @@ import sys
 import tempfile
 import textwrap
 import unittest
+import weakref
 
 import numpy as np
 import vtk
@@ -88,6 +89,9 @@ class CaseDir:
 
     def __init__(self, case_text, files=None, case_name="case.yaml"):
         self.root = tempfile.mkdtemp(prefix="hearth-cli-")
+        # Removed when the object goes or the test program ends, even where a test
+        # never calls cleanup() (many folders were left in /tmp otherwise).
+        self._remove = weakref.finalize(self, shutil.rmtree, self.root, True)
         self.dir = os.path.join(self.root, "case")
         os.makedirs(self.dir)
         self.case = os.path.join(self.dir, case_name)
@@ -99,7 +103,7 @@ class CaseDir:
         return os.path.join(self.dir, *parts)
 
     def cleanup(self):
-        shutil.rmtree(self.root, ignore_errors=True)
+        self._remove()
 
     def snapshot(self):
         """{relative path: bytes} of every file under the temporary root."""
