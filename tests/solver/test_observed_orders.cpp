@@ -16,8 +16,9 @@
 // approach in the finite element method", Int. J. Numer. Meth. Eng. 20; Brenner & Scott
 // 2008 on the duality argument) [all from memory]: 2 and 2 for 4-node elements, 3 and 4
 // for 10-node ones. A nodal value has no such expansion in general (verification.md
-// C25: no superconvergence at nodes on unstructured meshes), so only its extrapolated
-// value is checked. The tolerances are project choices.
+// C25: no superconvergence at nodes on unstructured meshes), so for 4-node elements only
+// the band around its finest value is asked, and for 10-node ones only its O(h^3) fall
+// and closeness (see there). The tolerances are project choices.
 #include "verification_support.hpp"
 
 #include <cmath>
@@ -156,9 +157,19 @@ TEST(ObservedOrders, TenNodeElementsOnNestedLevels) {
   EXPECT_NEAR(mean.observed_order, 4.0, 0.4);  // O(h^2p), as the heat rate
   EXPECT_NEAR(mean.extrapolated, exact_mean, 1e-6 * exact_mean);  // closed form above
   expect_band_holds(levels, mean, &LevelValues::mean, exact_mean);
-  const ConvergenceEstimate centre = estimate(levels, &LevelValues::centre, 2);
-  EXPECT_NEAR(centre.extrapolated, exact_centre, 1e-5 * exact_centre);  // closed form above
-  expect_band_holds(levels, centre, &LevelValues::centre, exact_centre);
+  // The centre value's error can change sign between levels (+1.3e-3, -3.0e-6, -1.1e-5
+  // on one base mesh: a near cancellation on the middle level), and then its three-level
+  // order (7.4 there) and band mean nothing. What holds on any such sequence: the
+  // pointwise error of quadratic elements is O(h^3) (Scott 1976, "Optimal L-infinity
+  // estimates for the finite element method on irregular meshes", Math. Comp. 30, from
+  // memory), so over the two halvings it must fall by at least 4^2 = 16 (1/4 of the
+  // asymptotic 64; 118 seen); and the finest value lies within 2e-5 of the closed form
+  // (project choice; 6.4e-6 seen).
+  const double first_error = std::abs(levels.front().centre - exact_centre);
+  const double last_error = std::abs(levels.back().centre - exact_centre);
+  EXPECT_LE(last_error, first_error / 16) << "centre errors " << first_error << " -> " << last_error;
+  EXPECT_NEAR(levels.back().centre, exact_centre, 2e-5 * exact_centre);  // closed form above
+  estimate(levels, &LevelValues::centre, 2);  // printed for the record only
   const ConvergenceEstimate l2 = estimate(levels, &LevelValues::l2_error, 2);
   EXPECT_NEAR(l2.observed_order, 3.0, 0.2);  // O(h^(p+1)), Ciarlet 1978 (from memory)
 }
