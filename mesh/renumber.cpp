@@ -30,29 +30,43 @@ NodeGraph build_node_graph(const Mesh& mesh) {
     for (std::size_t k = 0; k < mesh.tet_nodes.size(); ++k)
       node_tets[fill[static_cast<std::size_t>(mesh.tet_nodes[k])]++] = static_cast<std::int32_t>(k / per_tet);
   }
-  // Neighbours: the distinct other nodes of those elements, found with a marker.
+  // Neighbours: the distinct other nodes of those elements, found with a marker; two
+  // parallel passes over the nodes (count, then fill), each thread with its own marker.
   NodeGraph graph;
   graph.offsets.assign(n_nodes + 1, 0);
-  std::vector<std::int32_t> marker(n_nodes, -1);
-  for (int pass = 0; pass < 2; ++pass) {
-    std::size_t count = 0;
-    std::fill(marker.begin(), marker.end(), -1);
-    for (std::size_t i = 0; i < n_nodes; ++i) {
-      if (pass == 1) graph.offsets[i] = count;
-      marker[i] = static_cast<std::int32_t>(i);
-      for (std::size_t k = tet_offsets[i]; k < tet_offsets[i + 1]; ++k) {
-        const std::int32_t* t = mesh.tet(static_cast<std::size_t>(node_tets[k]));
-        for (std::size_t a = 0; a < per_tet; ++a) {
-          const std::int32_t j = t[a];
-          if (marker[j] == static_cast<std::int32_t>(i)) continue;
-          marker[j] = static_cast<std::int32_t>(i);
-          if (pass == 1) graph.neighbours[count] = j;
-          ++count;
-        }
+  const std::int64_t n_nodes64 = static_cast<std::int64_t>(n_nodes);
+  auto for_each_neighbour = [&](std::int64_t i, std::vector<std::int64_t>& marker, auto&& visit) {
+    marker[i] = i;
+    for (std::size_t k = tet_offsets[i]; k < tet_offsets[i + 1]; ++k) {
+      const std::int32_t* t = mesh.tet(static_cast<std::size_t>(node_tets[k]));
+      for (std::size_t a = 0; a < per_tet; ++a) {
+        const std::int32_t j = t[a];
+        if (marker[j] == i) continue;
+        marker[j] = i;
+        visit(j);
       }
     }
-    if (pass == 0) graph.neighbours.resize(count);
-    else graph.offsets[n_nodes] = count;
+  };
+#pragma omp parallel
+  {
+    std::vector<std::int64_t> marker(n_nodes, -1);
+#pragma omp for schedule(dynamic, 4096)
+    for (std::int64_t i = 0; i < n_nodes64; ++i) {
+      std::size_t count = 0;
+      for_each_neighbour(i, marker, [&](std::int32_t) { ++count; });
+      graph.offsets[i + 1] = count;
+    }
+  }
+  std::partial_sum(graph.offsets.begin(), graph.offsets.end(), graph.offsets.begin());
+  graph.neighbours.resize(graph.offsets[n_nodes]);
+#pragma omp parallel
+  {
+    std::vector<std::int64_t> marker(n_nodes, -1);
+#pragma omp for schedule(dynamic, 4096)
+    for (std::int64_t i = 0; i < n_nodes64; ++i) {
+      std::size_t fill = graph.offsets[i];
+      for_each_neighbour(i, marker, [&](std::int32_t j) { graph.neighbours[fill++] = j; });
+    }
   }
   return graph;
 }
@@ -118,11 +132,16 @@ std::vector<std::int32_t> reverse_cuthill_mckee_order(const Mesh& mesh) {
   std::vector<int> visit_stamp(n_nodes, 0);
   int stamp = 0;
   std::vector<std::int32_t> queue, by_degree;
-  // Components are started in order of smallest-degree remaining node.
+  // Components are started in order of smallest-degree remaining node (a counting
+  // sort on the degree, stable as the numbering it starts from).
+  std::size_t max_degree = 0;
+  for (std::size_t i = 0; i < n_nodes; ++i) max_degree = std::max(max_degree, graph.degree(static_cast<std::int32_t>(i)));
+  std::vector<std::size_t> degree_start(max_degree + 2, 0);
+  for (std::size_t i = 0; i < n_nodes; ++i) ++degree_start[graph.degree(static_cast<std::int32_t>(i)) + 1];
+  std::partial_sum(degree_start.begin(), degree_start.end(), degree_start.begin());
   std::vector<std::int32_t> candidates(n_nodes);
-  std::iota(candidates.begin(), candidates.end(), 0);
-  std::stable_sort(candidates.begin(), candidates.end(),
-                   [&](std::int32_t a, std::int32_t b) { return graph.degree(a) < graph.degree(b); });
+  for (std::size_t i = 0; i < n_nodes; ++i)
+    candidates[degree_start[graph.degree(static_cast<std::int32_t>(i))]++] = static_cast<std::int32_t>(i);
   for (const std::int32_t seed : candidates) {
     if (numbered[seed]) continue;
     const std::int32_t root = pseudo_peripheral_node(graph, seed, visit_stamp, stamp, queue);
@@ -154,25 +173,34 @@ void apply_node_numbering(Mesh& mesh, const std::vector<std::int32_t>& new_numbe
   const std::size_t n_nodes = mesh.n_nodes();
   if (new_number.size() != n_nodes) throw std::invalid_argument("apply_node_numbering: size differs from n_nodes");
   std::vector<double> coords(mesh.coords.size());
-  for (std::size_t i = 0; i < n_nodes; ++i)
+  const std::int64_t n_nodes64 = static_cast<std::int64_t>(n_nodes);
+#pragma omp parallel for schedule(static)
+  for (std::int64_t i = 0; i < n_nodes64; ++i)
     for (int d = 0; d < 3; ++d) coords[3 * static_cast<std::size_t>(new_number[i]) + d] = mesh.coords[3 * i + d];
   mesh.coords = std::move(coords);
-  for (std::int32_t& v : mesh.tet_nodes) v = new_number[v];
+  const std::int64_t n_tet_nodes = static_cast<std::int64_t>(mesh.tet_nodes.size());
+#pragma omp parallel for schedule(static)
+  for (std::int64_t k = 0; k < n_tet_nodes; ++k) mesh.tet_nodes[k] = new_number[mesh.tet_nodes[k]];
   for (std::int32_t& v : mesh.face_nodes) v = new_number[v];
 }
 
 void sort_elements_by_lowest_node(Mesh& mesh) {
+  // A counting sort on the lowest node: stable, and linear in the elements.
   const int per_tet = mesh.nodes_per_tet();
+  const std::int64_t n_tets = static_cast<std::int64_t>(mesh.n_tets());
   std::vector<std::int32_t> lowest(mesh.n_tets());
-  for (std::size_t e = 0; e < mesh.n_tets(); ++e)
-    lowest[e] = *std::min_element(mesh.tet(e), mesh.tet(e) + per_tet);
+#pragma omp parallel for schedule(static)
+  for (std::int64_t e = 0; e < n_tets; ++e) lowest[e] = *std::min_element(mesh.tet(e), mesh.tet(e) + per_tet);
+  std::vector<std::int64_t> start(mesh.n_nodes() + 1, 0);
+  for (const std::int32_t v : lowest) ++start[static_cast<std::size_t>(v) + 1];
+  std::partial_sum(start.begin(), start.end(), start.begin());
   std::vector<std::int32_t> order(mesh.n_tets());
-  std::iota(order.begin(), order.end(), 0);
-  std::stable_sort(order.begin(), order.end(), [&](std::int32_t a, std::int32_t b) { return lowest[a] < lowest[b]; });
+  for (std::int64_t e = 0; e < n_tets; ++e) order[start[lowest[e]]++] = static_cast<std::int32_t>(e);
   std::vector<std::int32_t> nodes(mesh.tet_nodes.size()), region(mesh.n_tets());
   std::vector<double> quality(mesh.tet_quality.size());
-  for (std::size_t k = 0; k < order.size(); ++k) {
-    const std::size_t e = order[k];
+#pragma omp parallel for schedule(static)
+  for (std::int64_t k = 0; k < n_tets; ++k) {
+    const std::size_t e = static_cast<std::size_t>(order[k]);
     std::copy(mesh.tet(e), mesh.tet(e) + per_tet, nodes.begin() + k * per_tet);
     region[k] = mesh.tet_region[e];
     if (!quality.empty()) quality[k] = mesh.tet_quality[e];
