@@ -16,6 +16,7 @@
 #include "mesh/geometry_guard.hpp"
 #include "mesh/gmsh_arrays.hpp"
 #include "mesh/gmsh_session.hpp"
+#include "mesh/interior_duplicates.hpp"
 #include "mesh/mesh_error.hpp"
 #include "mesh/mesh_quality.hpp"
 #include "mesh/mesh_topology.hpp"
@@ -445,39 +446,6 @@ void check_jacobians(const std::string& file, const Mesh& mesh, bool ready_mesh)
                                     (mesh.order == 2 ? ", or order 1" : "")));
 }
 
-// Mesh nodes in all, and those classified on points, curves and surfaces (not inside a volume).
-struct NodeCounts {
-  std::size_t all = 0, below_volumes = 0;
-};
-NodeCounts node_counts() {
-  NodeCounts counts;
-  std::vector<std::size_t> tags;
-  std::vector<double> coords, params;
-  gmsh::model::mesh::getNodes(tags, coords, params, -1, -1, false, false);
-  counts.all = tags.size();
-  for (int dim = 0; dim < 3; ++dim) {
-    std::vector<std::pair<int, int>> entities;
-    gmsh::model::getEntities(entities, dim);
-    for (const auto& [d, tag] : entities) {
-      gmsh::model::mesh::getNodes(tags, coords, params, d, tag, false, false);
-      counts.below_volumes += tags.size();
-    }
-  }
-  return counts;
-}
-
-// Gmsh 4.8's HXT on several threads now and then inserts one interior point twice, which
-// cracks the mesh around it. Where every extra copy lies inside a volume, the copies
-// are merged (removeDuplicateNodes): true when exactly `coincident` nodes went, none of
-// them on a point, curve or surface. Touching volumes that were never fragmented give
-// coincident nodes on their surfaces instead, and stay an error.
-bool merge_interior_duplicates(GmshSession& session, const std::string& file, std::size_t coincident) {
-  const NodeCounts before = node_counts();
-  session.guarded(file, [] { gmsh::model::mesh::removeDuplicateNodes(); });
-  const NodeCounts after = node_counts();
-  return after.below_volumes == before.below_volumes && before.all - after.all == coincident;
-}
-
 struct GmshMeshes {
   std::vector<Mesh> levels;
   std::string algorithm;  // HXT, Delaunay or "read from file"
@@ -498,14 +466,21 @@ GmshMeshes mesh_with_gmsh(const MeshRequest& request, GeometryKind kind, int lev
     session.report(short_name + " is a ready mesh: local mesh sizes are ignored");
   if (kind != GeometryKind::ready_mesh) apply_sizes(session, request, arrays);
 
-  auto convert = [&] {
-    session.guarded(file, [&] { read_mesh_arrays(file, arrays); });
+  auto convert_arrays = [&](bool report_dropped) {
     std::size_t dropped_faces = 0;
     Mesh mesh = mesh_from_gmsh_arrays(arrays, request.length_scale(), dropped_faces);
-    if (dropped_faces > 0)
+    if (dropped_faces > 0 && report_dropped)
       session.report(std::to_string(dropped_faces) +
                      " boundary triangles lie on no tetrahedron (a named surface outside every volume): left out");
     return mesh;
+  };
+  // Set when the first mesh was cracked by HXT's threads and mended: Gmsh's own model
+  // keeps the copies, so every level read from it is mended the same way.
+  bool mend = false;
+  auto convert = [&] {
+    session.guarded(file, [&] { read_mesh_arrays(file, arrays); });
+    if (mend) merge_interior_duplicate_nodes(arrays);
+    return convert_arrays(true);
   };
 
   GmshMeshes result;
@@ -539,13 +514,16 @@ GmshMeshes mesh_with_gmsh(const MeshRequest& request, GeometryKind kind, int lev
       throw MeshError(file + ": " + found + ": volumes touch without sharing their faces (fragment them, e.g. " +
                       "BooleanFragments in the script) or Gmsh's mesh is cracked (try a slightly different mesh size)");
     // Gmsh 4.8's HXT now and then inserts the same point twice when it runs on
-    // several threads; on one thread it does not. Merging the copies costs seconds,
-    // remeshing on one thread about as long again as the meshing.
-    if (merge_interior_duplicates(session, file, coincident)) {
-      Mesh merged = convert();
+    // several threads; on one thread it does not. Merging the copies in the arrays
+    // just read costs a fraction of a second (Gmsh's removeDuplicateNodes took 4 s at
+    // a million nodes), remeshing on one thread about as long again as the meshing.
+    const Clock::time_point merge_start = Clock::now();
+    if (merge_interior_duplicate_nodes(arrays) == coincident) {
+      Mesh merged = convert_arrays(false);
       if (count_coincident_nodes(merged) == 0 && find_invalid_elements(merged).count == 0) {
+        mend = true;
         session.report("meshing " + short_name + ": HXT on " + std::to_string(threads) + " threads made a cracked mesh (" +
-                       found + ", all inside volumes); merged them");
+                       found + ", all inside volumes); merged them in " + format_number(seconds_since(merge_start), 2) + " s");
         result.levels.push_back(std::move(merged));
         break;
       }
@@ -560,7 +538,11 @@ GmshMeshes mesh_with_gmsh(const MeshRequest& request, GeometryKind kind, int lev
       gmsh::model::mesh::refine();
       if (order == 2) gmsh::model::mesh::setOrder(2);
     });
-    result.levels.push_back(convert());
+    Mesh mesh = convert();
+    if (mend && count_coincident_nodes(mesh) != 0)
+      throw MeshError(file + ": level " + std::to_string(level + 1) + " of the refined mesh is cracked (coincident " +
+                      "nodes left after mending); try a slightly different mesh size");
+    result.levels.push_back(std::move(mesh));
   }
   return result;
 }
