@@ -8,25 +8,49 @@
 namespace hearth {
 
 std::vector<ExteriorFace> exterior_element_faces(const Mesh& mesh) {
-  // Every face is listed at its smallest vertex: node -> elements (vertices only), then
-  // each node's faces that start at it (a dozen on average) sorted by an insertion sort
-  // of packed keys, the single ones kept. Each thread takes one contiguous block of
-  // nodes, so the blocks joined in order are sorted.
+  // Every face is listed at its smallest vertex. Only an element's two smallest vertices
+  // are the smallest of one of its faces (the smallest of three, the second of the one
+  // face without the smallest), so each element is listed at those two nodes only:
+  // node -> elements, then each node's faces that start at it (a dozen on average)
+  // sorted by an insertion sort of packed keys, the single ones kept. Each thread takes
+  // one contiguous block of nodes, so the blocks joined in order are sorted; the order
+  // of a node's elements does not matter (a face is kept only when it is alone).
   const std::size_t n_nodes = mesh.n_nodes();
   const std::int64_t n_tets = static_cast<std::int64_t>(mesh.n_tets());
+  auto two_smallest = [&](std::int64_t e, std::int32_t& first, std::int32_t& second) {
+    const std::int32_t* v = mesh.tet(static_cast<std::size_t>(e));
+    first = std::min(v[0], v[1]), second = std::max(v[0], v[1]);
+    for (int a = 2; a < 4; ++a) {
+      if (v[a] < first) second = first, first = v[a];
+      else if (v[a] < second) second = v[a];
+    }
+  };
   std::vector<std::int64_t> start(n_nodes + 1, 0);
 #pragma omp parallel for schedule(static)
-  for (std::int64_t e = 0; e < n_tets; ++e)
-    for (int a = 0; a < 4; ++a) {
+  for (std::int64_t e = 0; e < n_tets; ++e) {
+    std::int32_t first, second;
+    two_smallest(e, first, second);
 #pragma omp atomic
-      ++start[mesh.tet(static_cast<std::size_t>(e))[a] + 1];
-    }
+    ++start[first + 1];
+#pragma omp atomic
+    ++start[second + 1];
+  }
   for (std::size_t i = 0; i < n_nodes; ++i) start[i + 1] += start[i];
   std::vector<std::int32_t> node_elements(static_cast<std::size_t>(start[n_nodes]));
   {
     std::vector<std::int64_t> fill(start.begin(), start.end() - 1);
-    for (std::size_t e = 0; e < mesh.n_tets(); ++e)
-      for (int a = 0; a < 4; ++a) node_elements[fill[mesh.tet(e)[a]]++] = static_cast<std::int32_t>(e);
+#pragma omp parallel for schedule(static)
+    for (std::int64_t e = 0; e < n_tets; ++e) {
+      std::int32_t first, second;
+      two_smallest(e, first, second);
+      std::int64_t slot_first, slot_second;
+#pragma omp atomic capture
+      slot_first = fill[first]++;
+#pragma omp atomic capture
+      slot_second = fill[second]++;
+      node_elements[static_cast<std::size_t>(slot_first)] = static_cast<std::int32_t>(e);
+      node_elements[static_cast<std::size_t>(slot_second)] = static_cast<std::int32_t>(e);
+    }
   }
   // A face (i, b, c) at node i: b < c packed in one integer, its element and the
   // element's vertex opposite it.
