@@ -449,6 +449,7 @@ void check_jacobians(const std::string& file, const Mesh& mesh, bool ready_mesh)
 struct GmshMeshes {
   std::vector<Mesh> levels;
   std::string algorithm;  // HXT, Delaunay or "read from file"
+  bool first_level_checked = false;  // its Jacobians already found valid here
 };
 
 // Everything that needs Gmsh: load, name, size, generate (remeshing on one thread
@@ -508,6 +509,7 @@ GmshMeshes mesh_with_gmsh(const MeshRequest& request, GeometryKind kind, int lev
       // an invalid element is mostly a curved one, which one thread would not mend:
       // it is reported by the checks after meshing.)
       const InvalidElements invalid = find_invalid_elements(mesh);
+      result.first_level_checked = invalid.count == 0;
       if (invalid.count > 0) {
         session.report("meshing " + short_name + ": HXT on " + std::to_string(threads) + " threads made " +
                        std::to_string(invalid.count) + " flat or inverted tetrahedra; remeshing on 1 thread");
@@ -531,13 +533,15 @@ GmshMeshes mesh_with_gmsh(const MeshRequest& request, GeometryKind kind, int lev
                       "BooleanFragments in the script) or Gmsh's mesh is cracked (try a slightly different mesh size)");
     // Gmsh 4.8's HXT now and then inserts the same point twice when it runs on
     // several threads; on one thread it does not. Merging the copies in the arrays
-    // just read costs a fraction of a second (Gmsh's removeDuplicateNodes took 4 s at
-    // a million nodes), remeshing on one thread about as long again as the meshing.
+    // just read, converting again and checking take about 1.3 s at a million nodes
+    // (Gmsh's removeDuplicateNodes and a second read took 5 s), remeshing on one
+    // thread about as long again as the meshing.
     const Clock::time_point merge_start = Clock::now();
     if (merge_interior_duplicate_nodes(arrays) == coincident) {
       Mesh merged = convert_arrays(false);
       if (count_coincident_nodes(merged) == 0 && find_invalid_elements(merged).count == 0) {
         mend = true;
+        result.first_level_checked = true;
         session.report("meshing " + short_name + ": HXT on " + std::to_string(threads) + " threads made a cracked mesh (" +
                        found + ", all inside volumes); merged them in " + format_number(seconds_since(merge_start), 2) + " s");
         result.levels.push_back(std::move(merged));
@@ -564,11 +568,13 @@ GmshMeshes mesh_with_gmsh(const MeshRequest& request, GeometryKind kind, int lev
 }
 
 // Checks, quality figures and renumbering of a converted mesh.
-void finish_mesh(const MeshRequest& request, const std::string& algorithm, Clock::time_point start, Mesh& mesh) {
+void finish_mesh(const MeshRequest& request, const std::string& algorithm, Clock::time_point start, Mesh& mesh,
+                 bool elements_checked) {
   auto report = [&](const std::string& line) {
     if (request.progress) request.progress(line);
   };
-  check_jacobians(request.geometry_file.string(), mesh, lower_extension(request.geometry_file) == ".msh");
+  if (!elements_checked)
+    check_jacobians(request.geometry_file.string(), mesh, lower_extension(request.geometry_file) == ".msh");
   mesh.tet_quality = tet_qualities(mesh);
   mesh.unnamed_exterior_faces = count_unnamed_exterior_faces(mesh);
   report("meshing " + request.geometry_file.filename().string() + ": " + std::to_string(mesh.n_nodes()) + " nodes, " +
@@ -591,7 +597,8 @@ std::vector<Mesh> build_mesh_levels(const MeshRequest& request, int levels) {
   const GeometryKind kind = check_request(request);
   const Clock::time_point start = Clock::now();
   GmshMeshes meshes = mesh_with_gmsh(request, kind, levels);  // Gmsh is finalised here
-  for (Mesh& mesh : meshes.levels) finish_mesh(request, meshes.algorithm, start, mesh);
+  for (std::size_t level = 0; level < meshes.levels.size(); ++level)
+    finish_mesh(request, meshes.algorithm, start, meshes.levels[level], level == 0 && meshes.first_level_checked);
   return std::move(meshes.levels);
 }
 
