@@ -36,38 +36,28 @@ const std::vector<std::array<double, 3>>& canonical_local_coords(int dim, std::s
                               ", " + std::to_string(n_nodes) + " nodes)");
 }
 
-// Position of each Gmsh node tag in arrays.node_tags (dense vector when tags are
-// compact, hash map otherwise).
-class NodeTagIndex {
- public:
-  explicit NodeTagIndex(const std::vector<std::size_t>& tags) {
-    const std::size_t max_tag = tags.empty() ? 0 : *std::max_element(tags.begin(), tags.end());
-    dense_ = max_tag <= 4 * tags.size() + 1024;
-    if (dense_) position_.assign(max_tag + 1, kAbsent);
-    for (std::size_t i = 0; i < tags.size(); ++i) {
-      if (dense_) position_[tags[i]] = i;
-      else sparse_[tags[i]] = i;
-    }
-  }
-  std::size_t operator()(std::size_t tag) const {
-    std::size_t found = kAbsent;
-    if (dense_) {
-      if (tag < position_.size()) found = position_[tag];
-    } else if (const auto it = sparse_.find(tag); it != sparse_.end()) {
-      found = it->second;
-    }
-    if (found == kAbsent) throw MeshError("Gmsh's mesh refers to node " + std::to_string(tag) + ", which it does not define");
-    return found;
-  }
-
- private:
-  static constexpr std::size_t kAbsent = std::numeric_limits<std::size_t>::max();
-  bool dense_ = true;
-  std::vector<std::size_t> position_;
-  std::unordered_map<std::size_t, std::size_t> sparse_;
-};
-
 }  // namespace
+
+NodeTagIndex::NodeTagIndex(const std::vector<std::size_t>& tags) {
+  const std::size_t max_tag = tags.empty() ? 0 : *std::max_element(tags.begin(), tags.end());
+  dense_ = max_tag <= 4 * tags.size() + 1024;
+  if (dense_) position_.assign(max_tag + 1, kAbsent);
+  for (std::size_t i = 0; i < tags.size(); ++i) {
+    if (dense_) position_[tags[i]] = i;
+    else sparse_[tags[i]] = i;
+  }
+}
+
+std::size_t NodeTagIndex::operator()(std::size_t tag) const {
+  std::size_t found = kAbsent;
+  if (dense_) {
+    if (tag < position_.size()) found = position_[tag];
+  } else if (const auto it = sparse_.find(tag); it != sparse_.end()) {
+    found = it->second;
+  }
+  if (found == kAbsent) throw MeshError("Gmsh's mesh refers to node " + std::to_string(tag) + ", which it does not define");
+  return found;
+}
 
 std::vector<int> canonical_node_permutation(int dim, const std::vector<double>& local_coords) {
   if (dim != 2 && dim != 3) throw std::invalid_argument("canonical_node_permutation: dimension must be 2 or 3");

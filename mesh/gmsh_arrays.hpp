@@ -3,7 +3,9 @@
 #pragma once
 
 #include <cstddef>
+#include <limits>
 #include <string>
+#include <unordered_map>
 #include <vector>
 
 #include "mesh/mesh.hpp"
@@ -34,6 +36,21 @@ struct GmshArrays {
   std::vector<GmshElementBlock> surfaces;  // triangles per surface entity
   std::vector<NamedGroup> regions;         // every volume entity in exactly one
   std::vector<NamedGroup> boundaries;      // a surface entity in any number (or none)
+};
+
+// Position of each Gmsh node tag in GmshArrays::node_tags (a dense vector when the tags
+// are compact, a hash map otherwise). Looking up a tag the arrays do not define throws
+// MeshError.
+class NodeTagIndex {
+ public:
+  explicit NodeTagIndex(const std::vector<std::size_t>& tags);
+  std::size_t operator()(std::size_t tag) const;
+
+ private:
+  static constexpr std::size_t kAbsent = std::numeric_limits<std::size_t>::max();
+  bool dense_ = true;
+  std::vector<std::size_t> position_;
+  std::unordered_map<std::size_t, std::size_t> sparse_;
 };
 
 // The canonical (VTK) order of an element's nodes from the local coordinates of

@@ -1,12 +1,9 @@
 // Merging coincident interior nodes in Gmsh's arrays.
 #include "mesh/interior_duplicates.hpp"
 
-#include <omp.h>
-
 #include <algorithm>
 #include <array>
 #include <cstdint>
-#include <numeric>
 #include <unordered_map>
 #include <vector>
 
@@ -15,18 +12,12 @@ namespace hearth {
 std::size_t merge_interior_duplicate_nodes(GmshArrays& arrays) {
   const std::size_t n = arrays.node_tags.size();
   if (n == 0) return 0;
-  // Tag -> position in node_tags (tags are dense in practice, as Gmsh numbers them).
-  const std::size_t max_tag = *std::max_element(arrays.node_tags.begin(), arrays.node_tags.end());
-  constexpr std::int64_t absent = -1;
-  std::vector<std::int64_t> position(max_tag + 1, absent);
-  for (std::size_t i = 0; i < n; ++i) position[arrays.node_tags[i]] = static_cast<std::int64_t>(i);
+  const NodeTagIndex position(arrays.node_tags);
   std::vector<char> in_tet(n, 0), on_surface(n, 0);
   for (const GmshElementBlock& block : arrays.volumes)
-    for (const std::size_t tag : block.node_tags)
-      if (tag <= max_tag && position[tag] != absent) in_tet[position[tag]] = 1;
+    for (const std::size_t tag : block.node_tags) in_tet[position(tag)] = 1;
   for (const GmshElementBlock& block : arrays.surfaces)
-    for (const std::size_t tag : block.node_tags)
-      if (tag <= max_tag && position[tag] != absent) on_surface[position[tag]] = 1;
+    for (const std::size_t tag : block.node_tags) on_surface[position(tag)] = 1;
 
   // Nodes of the tetrahedra sorted by their coordinates: copies end up side by side.
   std::vector<std::int64_t> by_position;

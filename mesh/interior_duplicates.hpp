@@ -14,7 +14,8 @@ namespace hearth {
 // Only nodes inside volumes are merged: when any node of a group of coincident nodes
 // lies on a surface triangle of `arrays` (a surface, curve or point of the model, as
 // where volumes touch without being fragmented), nothing is changed and 0 returned.
-// Otherwise returns the number of copies merged (0 when none coincide).
+// Otherwise returns the number of copies merged (0 when none coincide). Throws
+// MeshError when an element names a node tag the arrays do not define.
 std::size_t merge_interior_duplicate_nodes(GmshArrays& arrays);
 
 }  // namespace hearth
