@@ -63,6 +63,58 @@ double straight_jacobian(const TetGeometry& g) {
   return tet_jacobian(g, {0.25, 0.25, 0.25}, Jac);
 }
 
+// Straight 4-node element with K(T): the gradients and grad T are constant, so
+// int grad N_a . K(T) grad N_b = grad N_a . (int K(T)) grad N_b, and the Newton term
+// int grad N_a . (dK/dT grad T) N_b needs only the quadrature sums of dK N_b: one
+// geometry evaluation and four conductivity look-ups instead of four full passes.
+void add_p1_temperature_dependent_conduction(const TetGeometry& g, const Conductivity& k, const double* T,
+                                             JacobianKind kind, double* R, double* J) {
+  double grad[4][3];
+  const double det = p1_gradients(g, grad);
+  double gt[3] = {0, 0, 0};
+  for (int b = 0; b < 4; ++b)
+    for (int d = 0; d < 3; ++d) gt[d] += grad[b][d] * T[b];
+  const bool newton_term = J && kind == JacobianKind::exact;
+  Matrix3 Kbar{}, dK_N[4]{};  // int K dV, and int dK/dT N_b dV for each b
+  for (const auto& q : tet_rule(2)) {
+    const double N[4] = {1.0 - q.xi[0] - q.xi[1] - q.xi[2], q.xi[0], q.xi[1], q.xi[2]};
+    const double t = N[0] * T[0] + N[1] * T[1] + N[2] * T[2] + N[3] * T[3];
+    const double w = q.weight * det;
+    if (k.is_isotropic()) {  // the common case without 3 x 3 tensors
+      const double kt = k.principal[0].value(t);
+      for (int i = 0; i < 3; ++i) Kbar[i][i] += w * kt;
+      if (newton_term) {
+        const double dk = k.principal[0].slope(t);
+        for (int b = 0; b < 4; ++b)
+          for (int i = 0; i < 3; ++i) dK_N[b][i][i] += w * N[b] * dk;
+      }
+      continue;
+    }
+    Matrix3 K, dK;
+    k.at(t, K, newton_term ? &dK : nullptr);
+    for (int i = 0; i < 3; ++i)
+      for (int j = 0; j < 3; ++j) {
+        Kbar[i][j] += w * K[i][j];
+        if (newton_term)
+          for (int b = 0; b < 4; ++b) dK_N[b][i][j] += w * N[b] * dK[i][j];
+      }
+  }
+  const double kg[3] = {Kbar[0][0] * gt[0] + Kbar[0][1] * gt[1] + Kbar[0][2] * gt[2],
+                        Kbar[1][0] * gt[0] + Kbar[1][1] * gt[1] + Kbar[1][2] * gt[2],
+                        Kbar[2][0] * gt[0] + Kbar[2][1] * gt[1] + Kbar[2][2] * gt[2]};
+  for (int a = 0; a < 4; ++a) R[a] += grad[a][0] * kg[0] + grad[a][1] * kg[1] + grad[a][2] * kg[2];
+  if (!J) return;
+  for (int b = 0; b < 4; ++b) {
+    // Column b: Kbar grad N_b, plus (int dK/dT N_b) grad T for Newton.
+    double col[3];
+    for (int i = 0; i < 3; ++i) {
+      col[i] = Kbar[i][0] * grad[b][0] + Kbar[i][1] * grad[b][1] + Kbar[i][2] * grad[b][2];
+      if (newton_term) col[i] += dK_N[b][i][0] * gt[0] + dK_N[b][i][1] * gt[1] + dK_N[b][i][2] * gt[2];
+    }
+    for (int a = 0; a < 4; ++a) J[a * 4 + b] += grad[a][0] * col[0] + grad[a][1] * col[1] + grad[a][2] * col[2];
+  }
+}
+
 }  // namespace
 
 void add_capacity_terms(const TetGeometry& g, const CapacityTerm& term, const double* T, double* R, double* J) {
@@ -159,6 +211,7 @@ void tet_local_terms(const TetGeometry& g, const RegionProperties& region,
   }
   for (int a = 0; a < n; ++a) R[a] = -F[a];
   if (J) std::fill(J, J + n * n, 0.0);
+  if (g.order == 1) return add_p1_temperature_dependent_conduction(g, region.conductivity, T, kind, R, J);
   double N[max_tet_nodes], grad[max_tet_nodes][3];
   for (const auto& q : tet_rule(nonlinear_tet_degree(g))) {
     const double w = q.weight * tet_physical_gradients(g, q.xi, grad);

@@ -53,12 +53,14 @@ void Conductivity::at(double t, Matrix3& K, Matrix3* dK) const {
   if (dK)
     for (auto& row : *dK) row = {0, 0, 0};
   switch (kind) {
-    case Kind::isotropic:
+    case Kind::isotropic: {
+      const double k = principal[0].value(t), dk = dK ? principal[0].slope(t) : 0.0;
       for (int i = 0; i < 3; ++i) {
-        K[i][i] = principal[0].value(t);
-        if (dK) (*dK)[i][i] = principal[0].slope(t);
+        K[i][i] = k;
+        if (dK) (*dK)[i][i] = dk;
       }
       return;
+    }
     case Kind::orthotropic:
       for (int p = 0; p < 3; ++p) {
         const double k = principal[p].value(t), dk = dK ? principal[p].slope(t) : 0.0;

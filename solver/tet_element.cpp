@@ -87,24 +87,31 @@ double tet_volume(const TetGeometry& g) {
   return volume;
 }
 
-namespace {
-// Straight 4-node element: constant gradients G (rows = nodes) from the inverse of the
-// edge matrix; K = k V G G^T. About a third of the work of the general path.
-void add_p1_conductance(const TetGeometry& g, double conductivity, double* K) {
+double p1_gradients(const TetGeometry& g, double (*grad)[3]) {
   const double a[3] = {g.x[1][0] - g.x[0][0], g.x[1][1] - g.x[0][1], g.x[1][2] - g.x[0][2]};
   const double b[3] = {g.x[2][0] - g.x[0][0], g.x[2][1] - g.x[0][1], g.x[2][2] - g.x[0][2]};
   const double c[3] = {g.x[3][0] - g.x[0][0], g.x[3][1] - g.x[0][1], g.x[3][2] - g.x[0][2]};
-  // Rows of J^{-T} times det: gradients of L1, L2, L3 are (b x c, c x a, a x b) / det.
+  // Rows of J^{-T}: the gradients of L1, L2, L3 are (b x c, c x a, a x b) / det.
   const double g1[3] = {b[1] * c[2] - b[2] * c[1], b[2] * c[0] - b[0] * c[2], b[0] * c[1] - b[1] * c[0]};
   const double g2[3] = {c[1] * a[2] - c[2] * a[1], c[2] * a[0] - c[0] * a[2], c[0] * a[1] - c[1] * a[0]};
   const double g3[3] = {a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]};
   const double det = a[0] * g1[0] + a[1] * g1[1] + a[2] * g1[2];
-  const double G[4][3] = {{-g1[0] - g2[0] - g3[0], -g1[1] - g2[1] - g3[1], -g1[2] - g2[2] - g3[2]},
-                          {g1[0], g1[1], g1[2]},
-                          {g2[0], g2[1], g2[2]},
-                          {g3[0], g3[1], g3[2]}};
-  // k V G G^T with V = det/6 and G scaled by det: factor k / (6 det).
-  const double w = conductivity / (6.0 * det);
+  const double inv = 1.0 / det;
+  for (int d = 0; d < 3; ++d) {
+    grad[1][d] = g1[d] * inv;
+    grad[2][d] = g2[d] * inv;
+    grad[3][d] = g3[d] * inv;
+    grad[0][d] = -grad[1][d] - grad[2][d] - grad[3][d];
+  }
+  return det;
+}
+
+namespace {
+// Straight 4-node element: K = k V G G^T with the constant gradients G. About a third
+// of the work of the general path.
+void add_p1_conductance(const TetGeometry& g, double conductivity, double* K) {
+  double G[4][3];
+  const double w = conductivity * p1_gradients(g, G) / 6.0;  // k V
   for (int i = 0; i < 4; ++i)
     for (int j = i; j < 4; ++j) {
       const double kij = w * (G[i][0] * G[j][0] + G[i][1] * G[j][1] + G[i][2] * G[j][2]);

@@ -28,6 +28,9 @@ struct TetGeometry {
 double tet_jacobian(const TetGeometry& g, const Point& xi, double J[3][3]);
 // Physical gradients of the shape functions at xi; returns det J (> 0 for valid elements).
 double tet_physical_gradients(const TetGeometry& g, const Point& xi, double (*grad)[3]);
+// The constant gradients of a 4-node element's shape functions, in closed form (edge
+// cross products); returns det J = 6 V.
+double p1_gradients(const TetGeometry& g, double (*grad)[3]);
 Point tet_map(const TetGeometry& g, const Point& xi);
 
 double tet_volume(const TetGeometry& g);

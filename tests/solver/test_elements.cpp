@@ -5,6 +5,7 @@
 #include <cmath>
 #include <random>
 
+#include "solver/local_terms.hpp"
 #include "solver/quadrature.hpp"
 #include "solver/shape_functions.hpp"
 #include "solver/tet_element.hpp"
@@ -167,6 +168,56 @@ TEST(ElementMatrices, P1FaceMassMatrix) {
   add_face_mass(g, 1.0, M);
   for (int a = 0; a < 3; ++a)
     for (int b = 0; b < 3; ++b) EXPECT_NEAR(M[a * 3 + b], area / 12 * (a == b ? 2 : 1), 1e-14);
+}
+
+// The exact Jacobian of the element residual is its derivative: with k linear in T on
+// one table segment the residual is quadratic in T, so central differences reproduce
+// the derivative up to round-off (Taylor's theorem: the central-difference error is
+// delta^2/6 times the third derivative, zero here; from memory). The Picard matrix
+// M(T) has M(T) T = R(T) without sources (local_terms.hpp). Orthotropic k(T) on rotated
+// axes; a 4-node, a straight 10-node and a curved 10-node element (common practice, no source).
+TEST(ElementJacobians, ExactJacobianIsTheDerivativeOfTheResidual) {
+  const double c = std::cos(0.4), s = std::sin(0.4);
+  const Matrix3 axes = {{{c, s, 0}, {-s * 0.6, c * 0.6, 0.8}, {s * 0.8, -c * 0.8, 0.6}}};
+  RegionProperties region;
+  region.conductivity = Conductivity::orthotropic(
+      {PiecewiseLinear({200, 1500}, {1, 14}), PiecewiseLinear({200, 1500}, {0.5, 3}), PiecewiseLinear(2.0)}, axes);
+  const Point v[4] = {{0, 0, 0}, {0.3, 0.05, 0}, {0.04, 0.25, 0.02}, {0.02, 0.03, 0.2}};
+  std::mt19937 random(7);
+  std::uniform_real_distribution<double> temperature(400, 900);
+  for (const int variant : {0, 1, 2}) {  // P1, straight P2, curved P2
+    TetGeometry g;
+    g.order = variant == 0 ? 1 : 2;
+    for (int a = 0; a < 4; ++a) g.x[a] = v[a];
+    if (g.order == 2)
+      for (int k = 0; k < 6; ++k)
+        for (int d = 0; d < 3; ++d) g.x[4 + k][d] = 0.5 * (v[tet_edges[k][0]][d] + v[tet_edges[k][1]][d]);
+    if (variant == 2) g.x[4][1] -= 0.02, g.x[9][0] += 0.015;  // bowed edges
+    const int n = g.order == 1 ? 4 : 10;
+    double T[10], R[10], J[100], P[100], Rp[10], Rm[10];
+    for (int a = 0; a < n; ++a) T[a] = temperature(random);
+    tet_local_terms(g, region, nullptr, 0, T, JacobianKind::exact, R, J);
+    double scale = 0;
+    for (int i = 0; i < n * n; ++i) scale = std::max(scale, std::abs(J[i]));
+    const double delta = 1.0;  // K; exact for a quadratic residual
+    for (int b = 0; b < n; ++b) {
+      double Tp[10], Tm[10];
+      std::copy(T, T + n, Tp);
+      std::copy(T, T + n, Tm);
+      Tp[b] += delta, Tm[b] -= delta;
+      tet_local_terms(g, region, nullptr, 0, Tp, JacobianKind::exact, Rp, nullptr);
+      tet_local_terms(g, region, nullptr, 0, Tm, JacobianKind::exact, Rm, nullptr);
+      for (int a = 0; a < n; ++a)
+        EXPECT_NEAR(J[a * n + b], (Rp[a] - Rm[a]) / (2 * delta), 1e-10 * scale) << "variant " << variant;
+    }
+    tet_local_terms(g, region, nullptr, 0, T, JacobianKind::picard, Rp, P);
+    for (int a = 0; a < n; ++a) {
+      double MT = 0;
+      for (int b = 0; b < n; ++b) MT += P[a * n + b] * T[b];
+      EXPECT_NEAR(MT, R[a], 1e-10 * scale * 900) << "variant " << variant;
+      EXPECT_NEAR(Rp[a], R[a], 1e-12 * scale * 900);
+    }
+  }
 }
 
 }  // namespace
