@@ -45,6 +45,9 @@ class LinearSolver {
   // preconditioner built for an earlier one (Newton steps): the Krylov method still
   // solves the new matrix. Direct solvers keep their symbolic analysis in any case.
   virtual void keep_preconditioner(bool /*keep*/) {}
+  // Iterative solvers: the relative residual the next solves stop at (inexact Newton
+  // loosens it while far from the solution). Direct solvers ignore it.
+  virtual void set_tolerance(double /*relative_residual*/) {}
   // Solves A x = b; x holds the initial guess on entry (used by iterative solvers).
   virtual LinearSolveReport solve(const std::vector<double>& b, std::vector<double>& x) = 0;
 };
