@@ -320,6 +320,8 @@ struct Page {
         {"relative residual of the last linear solve", num(number_at(s, "/solve/linear_relative_residual"), 3)},
         {"converged", r.converged ? "yes" : "<span class=\"exceeded\">no</span>"},
         {"solve time s", num(number_at(s, "/solve/seconds"), 3)}};
+    if (const auto newton = number_at(s, "/solve/nonlinear_relative_residual"))
+      rows.insert(rows.begin() + 9, {"relative residual of the heat balance (Newton)", num(newton, 3)});
     out << table({"quantity", "value"}, rows, {1});
     time_integration();
   }

@@ -85,6 +85,10 @@ struct RunRecord {
   int linear_iterations = 0;
   int nonlinear_iterations = 0;
   double linear_relative_residual = 0.0;
+  // Steady Newton runs: |R(T)| / |R(T0)| of the heat-balance residual at the answer.
+  // Inexact Newton solves its last correction only as accurately as this needs, so the
+  // last linear solve's own residual says little there.
+  std::optional<double> nonlinear_relative_residual;
   double seconds = 0.0;
   bool converged = true;
   std::string failure;  // why, when not converged

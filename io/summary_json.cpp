@@ -104,6 +104,7 @@ nlohmann::json summary_json(const RunRecord& r, const Units& units) {
                 {"seconds", r.seconds},
                 {"converged", r.converged},
                 {"blas", r.blas}};
+  if (r.nonlinear_relative_residual) j["solve"]["nonlinear_relative_residual"] = *r.nonlinear_relative_residual;
   if (!r.failure.empty()) j["solve"]["failure"] = r.failure;
 
   j["regions"] = nlohmann::json::object();

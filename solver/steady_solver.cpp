@@ -3,6 +3,7 @@
 
 #include <chrono>
 #include <cmath>
+#include <algorithm>
 #include <cstdio>
 #include <stdexcept>
 
@@ -125,15 +126,25 @@ SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, con
       (symmetric ? "symmetric" : "non-symmetric") + " Jacobian");
 
   std::vector<double> R, R_try, delta(dofs.n_free()), T_try;
-  double r0 = 0.0, last_update = INFINITY, t_max = 0.0;
+  double r0 = 0.0, r_previous = 0.0, last_update = INFINITY, t_max = 0.0;
+  // Inexact Newton: far from the solution the linear solve need not be accurate, only
+  // good enough for the residual to fall. The relative tolerance eta of each solve follows
+  // the fall of |R| (Eisenstat & Walker, "Choosing the forcing terms in an inexact Newton
+  // method", SIAM J. Sci. Comput. 17, 1996, choice 2 with gamma = 0.9, alpha = 2 and their
+  // safeguard, from memory), at most 0.1. Direct solvers solve exactly in any case.
+  const double eta_max = 0.1;
+  double eta = eta_max;
+  bool jacobian_ready = false;  // A and R already hold the Jacobian and residual at T
   solution.nonlinear_converged = false;
   for (int it = 0; it <= nonlinear.max_iterations; ++it) {
     const JacobianKind kind = it == 0 ? JacobianKind::picard : JacobianKind::exact;
-    const auto t_assembly = std::chrono::steady_clock::now();
-    assembler.assemble_terms(problem, T, kind, &A, R);
-    solution.assembly_seconds += seconds_since(t_assembly);
+    NewtonStep step;
+    auto t_assembly = std::chrono::steady_clock::now();
+    if (!jacobian_ready) assembler.assemble_terms(problem, T, kind, &A, R);
+    step.assembly_seconds = seconds_since(t_assembly);
     const double r_norm = norm(R);
     if (it == 0) r0 = std::max(r_norm, 1e-300);
+    solution.nonlinear_relative_residual = r_norm / r0;
     t_max = 0.0;
     for (double t : T) t_max = std::max(t_max, std::abs(t));
     if (it > 0 && r_norm <= nonlinear.tolerance * r0 && last_update <= nonlinear.tolerance * t_max) {
@@ -141,45 +152,81 @@ SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, con
       break;
     }
     if (it == nonlinear.max_iterations) break;
+    if (it > 0) {
+      const double safeguard = 0.9 * eta * eta;
+      eta = 0.9 * (r_norm / r_previous) * (r_norm / r_previous);
+      if (safeguard > 0.1) eta = std::max(eta, safeguard);
+      // Near the end, no more accuracy than brings |R| a tenth below the target (Kelley,
+      // Iterative Methods for Linear and Nonlinear Equations, SIAM 1995, section 6.3,
+      // from memory, with 0.1 for 0.5 as margin), nor than the linear solver's own.
+      eta = std::min(std::max(eta, 0.1 * nonlinear.tolerance * r0 / r_norm), eta_max);
+      eta = std::max(eta, settings.tolerance);
+    }
+    r_previous = r_norm;
+    linear->set_tolerance(eta);
     for (double& v : R) v = -v;
-    // From the second Newton step on, keep the multigrid hierarchy of the first exact
-    // Jacobian (the Krylov method still solves the current one); rebuild it if that fails.
-    linear->keep_preconditioner(it >= 2);
+    // From the first exact Jacobian on, keep the multigrid hierarchy of the Picard
+    // matrix (the Krylov method still solves the current one); rebuild it if that fails.
+    const auto t_setup = std::chrono::steady_clock::now();
+    linear->keep_preconditioner(it >= 1);
     linear->setup(A);
+    step.setup_seconds = seconds_since(t_setup);
     std::fill(delta.begin(), delta.end(), 0.0);
     solution.linear = linear->solve(R, delta);
-    solution.linear_iterations += solution.linear.iterations;
-    if (!solution.linear.converged() && it >= 2) {
+    step.linear_iterations = solution.linear.iterations;
+    if (!solution.linear.converged() && it >= 1) {
+      const auto t_rebuild = std::chrono::steady_clock::now();
       linear->keep_preconditioner(false);
       linear->setup(A);
+      step.setup_seconds += seconds_since(t_rebuild);
       std::fill(delta.begin(), delta.end(), 0.0);
       solution.linear = linear->solve(R, delta);
-      solution.linear_iterations += solution.linear.iterations;
+      step.linear_iterations += solution.linear.iterations;
     }
+    step.solve_seconds = solution.linear.solve_seconds;
+    solution.linear_iterations += step.linear_iterations;
     if (!all_finite(delta) || !all_finite(R) || !std::isfinite(solution.linear.relative_residual))
       mark_not_finite(solution.linear);
     if (!solution.linear.converged()) break;
-    // Backtracking line search on |R| (Armijo with c = 1e-4); the Picard start is taken whole.
+    // Backtracking line search on |R| (Armijo with c = 1e-4); the Picard start is taken
+    // whole. The full step's trial also assembles the next Jacobian, which the next
+    // Newton step then uses as it is when the full step is accepted.
     double alpha = 1.0;
+    jacobian_ready = false;
+    t_assembly = std::chrono::steady_clock::now();
     for (int halving = 0;; ++halving) {
       T_try = T;
       for (std::int32_t r = 0; r < dofs.n_free(); ++r) T_try[dofs.free_nodes[r]] += alpha * delta[r];
       if (it == 0 || halving == 8) break;  // the last, smallest step is taken as it is
-      assembler.assemble_terms(problem, T_try, kind, nullptr, R_try);
+      assembler.assemble_terms(problem, T_try, JacobianKind::exact, halving == 0 ? &A : nullptr, R_try);
       const double r_try = norm(R_try);
       // Accept a sufficient decrease, or a residual already at round-off level.
-      if (r_try <= (1.0 - 1e-4 * alpha) * r_norm || r_try <= 1e-3 * nonlinear.tolerance * r0) break;
+      if (r_try <= (1.0 - 1e-4 * alpha) * r_norm || r_try <= 1e-3 * nonlinear.tolerance * r0) {
+        if (halving == 0) R.swap(R_try), jacobian_ready = true;
+        break;
+      }
       alpha *= 0.5;
     }
+    step.assembly_seconds += seconds_since(t_assembly);
+    solution.assembly_seconds += step.assembly_seconds;
     last_update = 0.0;
     for (std::int32_t r = 0; r < dofs.n_free(); ++r) last_update = std::max(last_update, std::abs(alpha * delta[r]));
     T.swap(T_try);
     solution.nonlinear_iterations = it + 1;
-    solution.history.push_back({r_norm, r_norm / r0, last_update, alpha, solution.linear.iterations});
+    step.residual = r_norm;
+    step.relative_residual = r_norm / r0;
+    step.update = last_update;
+    step.step = alpha;
+    step.linear_tolerance = eta;
+    solution.history.push_back(step);
     say(format("newton %2.0f: residual %.3e W (relative %.2e), update %.3e K", it + 1, r_norm, r_norm / r0,
                last_update) +
         format(", step factor %.3g", alpha) +
-        (solution.linear.iterations ? ", " + std::to_string(solution.linear.iterations) + " linear iterations" : ""));
+        (step.linear_iterations
+             ? ", " + std::to_string(step.linear_iterations) + " linear iterations to " +
+                   format("%.0e (assembly %.2f s, set-up %.2f s, solve %.2f s)", eta, step.assembly_seconds,
+                          step.setup_seconds, step.solve_seconds)
+             : std::string()));
   }
   if (!solution.nonlinear_converged && solution.linear.converged()) {
     const auto& last = solution.history.empty() ? NewtonStep{} : solution.history.back();

@@ -24,6 +24,8 @@ struct NewtonStep {
   double update = 0.0;          // max |alpha delta T| (K)
   double step = 1.0;            // line-search factor alpha
   int linear_iterations = 0;
+  double linear_tolerance = 0.0;  // relative residual the linear solve stopped at
+  double assembly_seconds = 0.0, setup_seconds = 0.0, solve_seconds = 0.0;
 };
 
 struct SteadySolution {
@@ -32,6 +34,7 @@ struct SteadySolution {
   std::int64_t dofs = 0;            // free unknowns in the linear system
   int linear_iterations = 0;        // summed over Newton steps
   int nonlinear_iterations = 0;     // 0 for a linear problem
+  double nonlinear_relative_residual = 0.0;  // |R(T)| / |R(T0)| at the returned T (Newton)
   bool nonlinear_converged = true;
   std::string nonlinear_message;    // why, when not converged
   std::vector<NewtonStep> history;  // one entry per Newton step

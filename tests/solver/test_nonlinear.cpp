@@ -69,6 +69,36 @@ TEST(TemperatureDependentConductivity, NewtonConvergesQuadratically) {
   EXPECT_TRUE(s.solution.nonlinear_converged);
 }
 
+// Inexact Newton with multigrid (Eisenstat & Walker, SIAM J. Sci. Comput. 17, 1996,
+// from memory): loose Krylov tolerances far from the answer, tight ones near it, reach
+// the same discrete answer as exact Newton steps with a direct solver, to the Newton
+// tolerance, and the C20(a) flux of 5580.0 W/m2 (Kirchhoff transformation, as above).
+TEST(TemperatureDependentConductivity, InexactNewtonWithMultigridMatchesExactSteps) {
+  const Mesh mesh = mesh_script("c20i.geo", prism(0.2, 0.05), 0.02, 1);
+  ThermalProblem p = problem_for(mesh, {{"wall", 1.0}});
+  p.regions[0].conductivity = linear_in_temperature();
+  condition(mesh, p, "x0").temperature = 1000 + celsius;
+  condition(mesh, p, "x1").temperature = 100 + celsius;
+  const Solved exact = solve(mesh, p, LinearSolverKind::direct);
+  const Solved inexact = solve(mesh, p, LinearSolverKind::iterative, 1e-10);
+  EXPECT_EQ(inexact.solution.linear.solver, "boomeramg-gmres");
+  const auto& h = inexact.solution.history;
+  ASSERT_GE(h.size(), 3u);
+  EXPECT_DOUBLE_EQ(h.front().linear_tolerance, 0.1);          // the first step: loose
+  EXPECT_LT(h.front().linear_iterations, h[h.size() - 2].linear_iterations);  // tighter near the end
+  EXPECT_LE(inexact.solution.nonlinear_relative_residual, 1e-8);  // the Newton target
+  const double area = 0.05 * 0.05;
+  EXPECT_NEAR(inexact.heat_rate(mesh, "x0") / area, 5580.0, 1e-4 * 5580.0);
+  // Both solve the same discrete equations to |R| <= 1e-8 |R0|: the heat rates agree to
+  // about that (relative to the rates), with a margin of 100.
+  EXPECT_NEAR(inexact.heat_rate(mesh, "x0"), exact.heat_rate(mesh, "x0"), 1e-6 * std::abs(exact.heat_rate(mesh, "x0")));
+  double worst = 0;
+  for (std::size_t i = 0; i < mesh.n_nodes(); ++i)
+    worst = std::max(worst, std::abs(inexact.solution.temperature[i] - exact.solution.temperature[i]));
+  std::printf("inexact flux %.4f W/m2, exact-step flux %.4f, largest difference %.2e K\n", inexact.heat_rate(mesh, "x0") / area, exact.heat_rate(mesh, "x0") / area, worst);
+  EXPECT_LT(worst, 1e-5);  // K, against temperatures of about 1000 K: 1e-8 relative
+}
+
 // C20(b): cylinder r_i = 0.1, r_o = 0.3 (90-degree sector, 0.1 m long), T(r_i) = 1000,
 // T(r_o) = 100 degC. Same source: q' = 2 pi k0 [(T1 - T2) + beta/2 (T1^2 - T2^2)] / ln(r_o/r_i)
 // = 6382.629 W/m (sector: 159.5657 W); T(0.2) = 496.5647 degC.

@@ -13,9 +13,11 @@
 //   hearth_bench [--geometry box|lining] [--order 1|2] [--sizes 0.02,0.01,...]
 //                [--solvers direct,iterative] [--direct-limit N] [--repeat R]
 //                [--reference on|off] [--json] [--newton on] [--transient on]
+//                [--progress on]
 //
 // --json: the figures as one JSON document on stdout instead of the table.
-// --newton on (box): k(T) Newton solve against the linear one on the same mesh.
+// --newton on (box): k(T) Newton solve against the linear one on the same mesh;
+// --progress on prints its Newton steps (residual, Krylov iterations, seconds) to stderr.
 // --transient on (box): heat-up of the box (rho c = 1e6 J/(m3 K)) from 0 K with the
 // face at 100 K, 20 fixed steps of 50 s by BDF2, with the linear solver kept between
 // steps and set up afresh at every step: seconds for the first step and per later step.
@@ -176,7 +178,7 @@ int main(int argc, char** argv) {
   std::vector<double> sizes;
   std::vector<std::string> solvers = {"iterative"};
   std::int64_t direct_limit = 250000;
-  bool newton = false, transient = false, reference = true, json = false;
+  bool newton = false, transient = false, reference = true, json = false, progress = false;
   for (int i = 1; i < argc; ++i) {
     const std::string key = argv[i];
     if (key == "--json") {
@@ -196,6 +198,7 @@ int main(int argc, char** argv) {
     else if (key == "--direct-limit") direct_limit = std::stoll(value);
     else if (key == "--newton") newton = value == "on";
     else if (key == "--transient") transient = value == "on";
+    else if (key == "--progress") progress = value == "on";
     else if (key == "--reference") reference = value == "on";
     else if (key == "--solvers") solvers = split(value);
     else {
@@ -264,7 +267,9 @@ int main(int argc, char** argv) {
       const SteadySolution lin = solve_steady(mesh, problem, settings);
       const double linear_seconds = seconds_since(t_linear);
       const auto t_newton = Clock::now();
-      const SteadySolution non = solve_steady(mesh, nonlinear, settings);
+      const SteadySolution non = solve_steady(mesh, nonlinear, settings, [&](const std::string& line) {
+        if (progress) std::fprintf(stderr, "  %6.2f s  %s\n", seconds_since(t_newton), line.c_str());
+      });
       const double newton_seconds = seconds_since(t_newton);
       std::printf("%8.4f %9zu %9zu %8.2f | linear %s %.2f s (%d iterations) | k(T) Newton: %d steps, %s, %d linear "
                   "iterations in all, %.2f s (%.1f x the linear solve)%s\n",

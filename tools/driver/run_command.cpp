@@ -98,6 +98,7 @@ int run_command(const CommonOptions& options) {
   record.linear_iterations = solution.linear_iterations;
   record.nonlinear_iterations = solution.nonlinear_iterations;
   record.linear_relative_residual = solution.linear.relative_residual;
+  if (solution.nonlinear_iterations > 0) record.nonlinear_relative_residual = solution.nonlinear_relative_residual;
   record.seconds = solution.seconds;
   record.converged = solution.converged();
   record.failure = solution.nonlinear_message.empty() ? solution.linear.message : solution.nonlinear_message;
