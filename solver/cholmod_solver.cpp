@@ -61,6 +61,13 @@ class CholmodSolver final : public LinearSolver {
     setup_seconds_ = seconds_since(t0);
   }
 
+  void apply_factorisation(const std::vector<double>& r, std::vector<double>& z) override {
+    cholmod_dense* solution = solve_dense(r);
+    const double* values = static_cast<const double*>(solution->x);
+    z.assign(values, values + A_->n);
+    cholmod_l_free_dense(&solution, &common_);
+  }
+
   LinearSolveReport solve(const std::vector<double>& b, std::vector<double>& x) override {
     LinearSolveReport report;
     report.solver = name();
@@ -71,16 +78,7 @@ class CholmodSolver final : public LinearSolver {
       return report;
     }
     const auto t0 = std::chrono::steady_clock::now();
-    cholmod_dense rhs{};
-    rhs.nrow = A_->n;
-    rhs.ncol = 1;
-    rhs.nzmax = A_->n;
-    rhs.d = A_->n;
-    rhs.x = const_cast<double*>(b.data());
-    rhs.xtype = CHOLMOD_REAL;
-    rhs.dtype = CHOLMOD_DOUBLE;
-    cholmod_dense* solution = cholmod_l_solve(CHOLMOD_A, factor_, &rhs, &common_);
-    if (!solution) throw std::runtime_error("CHOLMOD solve failed");
+    cholmod_dense* solution = solve_dense(b);
     const double* values = static_cast<const double*>(solution->x);
     x.assign(values, values + A_->n);
     cholmod_l_free_dense(&solution, &common_);
@@ -94,6 +92,20 @@ class CholmodSolver final : public LinearSolver {
   }
 
  private:
+  cholmod_dense* solve_dense(const std::vector<double>& b) {
+    cholmod_dense rhs{};
+    rhs.nrow = A_->n;
+    rhs.ncol = 1;
+    rhs.nzmax = A_->n;
+    rhs.d = A_->n;
+    rhs.x = const_cast<double*>(b.data());
+    rhs.xtype = CHOLMOD_REAL;
+    rhs.dtype = CHOLMOD_DOUBLE;
+    cholmod_dense* solution = cholmod_l_solve(CHOLMOD_A, factor_, &rhs, &common_);
+    if (!solution) throw std::runtime_error("CHOLMOD solve failed");
+    return solution;
+  }
+
   cholmod_common common_{};
   cholmod_factor* factor_ = nullptr;
   const CsrMatrix* A_ = nullptr;

@@ -43,17 +43,28 @@ class LinearSolver {
   virtual void setup(const CsrMatrix& A) = 0;
   // When true, the next setup() of a matrix with the same pattern may keep the
   // preconditioner built for an earlier one (Newton steps): the Krylov method still
-  // solves the new matrix. Direct solvers keep their symbolic analysis in any case.
+  // solves the new matrix. Plain direct solvers keep their symbolic analysis in any
+  // case and ignore it (see keep_factor_between_steps).
   virtual void keep_preconditioner(bool /*keep*/) {}
   // Iterative solvers: the relative residual the next solves stop at (inexact Newton
   // loosens it while far from the solution). Direct solvers ignore it.
   virtual void set_tolerance(double /*relative_residual*/) {}
   // Solves A x = b; x holds the initial guess on entry (used by iterative solvers).
   virtual LinearSolveReport solve(const std::vector<double>& b, std::vector<double>& x) = 0;
+  // z = A^{-1} r by the factorisation alone, without iterative refinement or a residual
+  // check: a direct solver used as the preconditioner of a nearby matrix. Defaults to solve().
+  virtual void apply_factorisation(const std::vector<double>& r, std::vector<double>& z) { solve(r, z); }
 };
 
 std::unique_ptr<LinearSolver> make_cholmod_solver();
 std::unique_ptr<LinearSolver> make_umfpack_solver();
+// Direct solves for Newton's method: each matrix set up afresh is factorised, by
+// `cholesky` when symmetric (and positive definite), else by `lu`; with
+// keep_preconditioner(true), later matrices of the same pattern are solved by GMRES (to
+// set_tolerance) preconditioned with the kept factorisation (reported as
+// "cholmod-gmres" / "umfpack-gmres"), renewed when GMRES needs many iterations or fails.
+std::unique_ptr<LinearSolver> keep_factor_between_steps(std::unique_ptr<LinearSolver> cholesky,
+                                                        std::unique_ptr<LinearSolver> lu);
 // BoomerAMG-preconditioned CG (symmetric) or GMRES (non-symmetric matrices).
 std::unique_ptr<LinearSolver> make_amg_krylov_solver(double tolerance, int max_iterations, bool symmetric);
 // Picks by settings.kind, and for automatic by the number of unknowns: CHOLMOD or

@@ -119,6 +119,8 @@ SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, con
   bool symmetric = true;
   for (const auto& r : problem.regions) symmetric &= !r.conductivity.depends_on_temperature();
   auto linear = make_linear_solver(settings, dofs.n_free(), symmetric);
+  const bool direct = linear->name() == "cholmod" || linear->name() == "umfpack";
+  if (direct) linear = keep_factor_between_steps(make_cholmod_solver(), make_umfpack_solver());
   std::vector<double>& T = solution.temperature;
   const double guess = reference_temperature(problem);
   for (std::int32_t r = 0; r < dofs.n_free(); ++r) T[dofs.free_nodes[r]] = guess;
