@@ -59,6 +59,13 @@ const std::vector<double>& reference_mass(int order) {
 }
 
 double straight_jacobian(const TetGeometry& g) {
+  if (g.order == 1) {  // det of the edge vectors, without the shape-function machinery
+    const Point& o = g.x[0];
+    const double a[3] = {g.x[1][0] - o[0], g.x[1][1] - o[1], g.x[1][2] - o[2]};
+    const double b[3] = {g.x[2][0] - o[0], g.x[2][1] - o[1], g.x[2][2] - o[2]};
+    const double c[3] = {g.x[3][0] - o[0], g.x[3][1] - o[1], g.x[3][2] - o[2]};
+    return a[0] * (b[1] * c[2] - b[2] * c[1]) + a[1] * (b[2] * c[0] - b[0] * c[2]) + a[2] * (b[0] * c[1] - b[1] * c[0]);
+  }
   double Jac[3][3];
   return tet_jacobian(g, {0.25, 0.25, 0.25}, Jac);
 }

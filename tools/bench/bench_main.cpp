@@ -298,10 +298,12 @@ int main(int argc, char** argv) {
             solve_transient(mesh, heat_up, std::vector<double>(mesh.n_nodes(), 0.0), ts, settings);
         const double later = (heat.seconds - heat.first_step_seconds) / std::max(1, heat.steps - 1);
         std::printf("%8.4f %9zu %9zu %8.2f | transient %s, %s: %d steps, first %.2f s, later %.3f s a step "
-                    "(%.2f x), total %.2f s, %d set-ups, %d reuses, %d linear iterations%s\n",
+                    "(%.2f x), total %.2f s (assembly %.2f s, set-up %.2f s, solve %.2f s), %d set-ups, %d reuses, "
+                    "%d linear iterations%s\n",
                     size, mesh.n_nodes(), mesh.n_tets(), mesh_seconds, heat.linear_solver.c_str(),
                     reuse ? "solver kept" : "solver set up every step", heat.steps, heat.first_step_seconds, later,
-                    later / heat.first_step_seconds, heat.seconds, heat.preconditioner_setups, heat.matrix_reuses,
+                    later / heat.first_step_seconds, heat.seconds, heat.assembly_seconds, heat.setup_seconds,
+                    heat.solve_seconds, heat.preconditioner_setups, heat.matrix_reuses,
                     heat.linear_iterations, heat.completed ? "" : " NOT COMPLETED");
         std::fflush(stdout);
       }
