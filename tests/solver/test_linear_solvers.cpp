@@ -24,14 +24,20 @@ Physical Surface("hot") = {Surface In BoundingBox{-eps, -eps, -eps, eps, 0.2 + e
 Physical Surface("cold") = {Surface In BoundingBox{0.2 - eps, -eps, -eps, 0.2 + eps, 0.2 + eps, 0.2 + eps}};
 )";
 
+// The block with a source in the dense layer, the hot face fixed and the cold face to air.
+ThermalProblem layered_problem(const Mesh& mesh) {
+  ThermalProblem p = problem_for(mesh, {{"dense", 40.0}, {"board", 0.04}}, {{"dense", 2e4}});
+  condition(mesh, p, "hot").temperature = 900 + celsius;
+  condition(mesh, p, "cold").convection = Convection{12, 25 + celsius};
+  return p;
+}
+
 class SolverAgreement : public ::testing::TestWithParam<int> {};
 
 TEST_P(SolverAgreement, DirectAndMultigridGiveTheSameTemperatures) {
   const int order = GetParam();
   const Mesh mesh = mesh_script("agree.geo", layered_block, 0.025, order);
-  ThermalProblem p = problem_for(mesh, {{"dense", 40.0}, {"board", 0.04}}, {{"dense", 2e4}});
-  condition(mesh, p, "hot").temperature = 900 + celsius;
-  condition(mesh, p, "cold").convection = Convection{12, 25 + celsius};
+  ThermalProblem p = layered_problem(mesh);
   const ThermalProblem before = p;
   const Solved direct = solve(mesh, p, LinearSolverKind::direct, 1e-12);
   const Solved amg = solve(mesh, p, LinearSolverKind::iterative, 1e-12);
@@ -91,9 +97,7 @@ TEST_P(SolverAgreement, AssembledMatrixIsSymmetricWithPositiveDiagonal) {
 // Checked against CHOLMOD on each matrix (agreement, common practice, no source).
 TEST(KeptMultigrid, EachNewMatrixIsSolvedNotTheFirst) {
   const Mesh mesh = mesh_script("kept.geo", layered_block, 0.03, 1);
-  ThermalProblem p = problem_for(mesh, {{"dense", 40.0}, {"board", 0.04}}, {{"dense", 2e4}});
-  condition(mesh, p, "hot").temperature = 900 + celsius;
-  condition(mesh, p, "cold").convection = Convection{12, 25 + celsius};
+  ThermalProblem p = layered_problem(mesh);
   const DofMap dofs = make_dof_map(mesh, p);
   const Assembler assembler(mesh, dofs);
   for (const bool symmetric : {true, false}) {
@@ -131,9 +135,7 @@ TEST(KeptMultigrid, EachNewMatrixIsSolvedNotTheFirst) {
 // Checked against CHOLMOD on each matrix (agreement, common practice, no source).
 TEST(Gmres, ExactAndNearbyFactorisationsAsPreconditioners) {
   const Mesh mesh = mesh_script("gmres.geo", layered_block, 0.03, 1);
-  ThermalProblem p = problem_for(mesh, {{"dense", 40.0}, {"board", 0.04}}, {{"dense", 2e4}});
-  condition(mesh, p, "hot").temperature = 900 + celsius;
-  condition(mesh, p, "cold").convection = Convection{12, 25 + celsius};
+  ThermalProblem p = layered_problem(mesh);
   const DofMap dofs = make_dof_map(mesh, p);
   const Assembler assembler(mesh, dofs);
   CsrMatrix A, B;
@@ -175,9 +177,7 @@ TEST(Gmres, ExactAndNearbyFactorisationsAsPreconditioners) {
 // far from it is factorised afresh, by LU when not symmetric (common practice, no source).
 TEST(KeptFactorisation, CholeskyFirstThenGmresThenRenewal) {
   const Mesh mesh = mesh_script("keptlu.geo", layered_block, 0.03, 1);
-  ThermalProblem p = problem_for(mesh, {{"dense", 40.0}, {"board", 0.04}}, {{"dense", 2e4}});
-  condition(mesh, p, "hot").temperature = 900 + celsius;
-  condition(mesh, p, "cold").convection = Convection{12, 25 + celsius};
+  ThermalProblem p = layered_problem(mesh);
   const DofMap dofs = make_dof_map(mesh, p);
   const Assembler assembler(mesh, dofs);
   CsrMatrix A, near, far;

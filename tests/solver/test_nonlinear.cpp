@@ -15,16 +15,22 @@ Conductivity linear_in_temperature() {
   return Conductivity::isotropic(PiecewiseLinear({celsius - 200, celsius + 1200}, {0.8 * 0.8, 0.8 * 2.2}));
 }
 
+// The C20(a) slab: k(T) below, 1000 degC on x = 0, 100 degC on x = L.
+ThermalProblem kirchhoff_slab(const Mesh& mesh) {
+  ThermalProblem p = problem_for(mesh, {{"wall", 1.0}});
+  p.regions[0].conductivity = linear_in_temperature();
+  condition(mesh, p, "x0").temperature = 1000 + celsius;
+  condition(mesh, p, "x1").temperature = 100 + celsius;
+  return p;
+}
+
 // C20(a): slab L = 0.2 m, T(0) = 1000, T(L) = 100 degC. Kirchhoff transformation (Carslaw &
 // Jaeger; textbook problems on k = k0(1 + beta T) in Incropera and Cengel, from memory):
 // q'' = (k0/L)[(T1 - T2) + beta/2 (T1^2 - T2^2)] = 5580.0 W/m2; T(0.05) = 817.2782,
 // T(0.10) = 614.0012, T(0.15) = 381.1227 degC (verification.md C20, numbers recomputed).
 TEST(TemperatureDependentConductivity, SlabFollowsTheKirchhoffProfile) {
   const Mesh mesh = mesh_script("c20a.geo", prism(0.2, 0.05), 0.02, 2);
-  ThermalProblem p = problem_for(mesh, {{"wall", 1.0}});
-  p.regions[0].conductivity = linear_in_temperature();
-  condition(mesh, p, "x0").temperature = 1000 + celsius;
-  condition(mesh, p, "x1").temperature = 100 + celsius;
+  const ThermalProblem p = kirchhoff_slab(mesh);
   const Solved s = solve(mesh, p);
   const double area = 0.05 * 0.05;
   EXPECT_NEAR(s.heat_rate(mesh, "x0") / area, 5580.0, 1e-4 * 5580.0);
@@ -77,10 +83,7 @@ TEST(TemperatureDependentConductivity, NewtonConvergesQuadratically) {
 // tolerance, and the C20(a) flux of 5580.0 W/m2 (Kirchhoff transformation, as above).
 TEST(TemperatureDependentConductivity, InexactNewtonWithMultigridMatchesTheDirectPath) {
   const Mesh mesh = mesh_script("c20i.geo", prism(0.2, 0.05), 0.02, 1);
-  ThermalProblem p = problem_for(mesh, {{"wall", 1.0}});
-  p.regions[0].conductivity = linear_in_temperature();
-  condition(mesh, p, "x0").temperature = 1000 + celsius;
-  condition(mesh, p, "x1").temperature = 100 + celsius;
+  const ThermalProblem p = kirchhoff_slab(mesh);
   const Solved direct = solve(mesh, p, LinearSolverKind::direct);
   const Solved inexact = solve(mesh, p, LinearSolverKind::iterative, 1e-10);
   EXPECT_EQ(inexact.solution.linear.solver, "boomeramg-gmres");
