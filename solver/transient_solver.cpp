@@ -145,23 +145,23 @@ class StepSolver {
   // product with the Jacobian), not times the residual of the extrapolated guess, which
   // is small when the predictor is good. The first step starts at T_n and keeps the full
   // tolerance; later ones start nearer and need fewer iterations for the same accuracy.
-  // Never looser than 0.1 (project choice, as for inexact Newton steps).
+  // Never looser than 0.1 (project choice, as for inexact Newton steps). Later Newton
+  // iterations of a nonlinear step keep the plain relative tolerance, so that their
+  // convergence stays quadratic.
   double krylov_tolerance(const ThermalProblem& problem, const std::vector<double>& T, double r_norm, int it) {
-    if (it == 0) {
-      reference_ = r_norm;
-      if (problem.time_levels && problem.time_levels->previous) {
-        const std::vector<double>& previous = *problem.time_levels->previous;
-        difference_.resize(dofs_.n_free());
-        for (std::int32_t r = 0; r < dofs_.n_free(); ++r)
-          difference_[r] = previous[dofs_.free_nodes[r]] - T[dofs_.free_nodes[r]];
-        A_.multiply(difference_, product_);
-        double s = 0.0;
-        for (std::int32_t r = 0; r < dofs_.n_free(); ++r) s += (R_[r] + product_[r]) * (R_[r] + product_[r]);
-        reference_ = std::max(r_norm, std::sqrt(s));
-      }
+    if (it > 0 || r_norm <= 0.0) return linear_tolerance_;
+    double reference = r_norm;
+    if (problem.time_levels && problem.time_levels->previous) {
+      const std::vector<double>& previous = *problem.time_levels->previous;
+      difference_.resize(dofs_.n_free());
+      for (std::int32_t r = 0; r < dofs_.n_free(); ++r)
+        difference_[r] = previous[dofs_.free_nodes[r]] - T[dofs_.free_nodes[r]];
+      A_.multiply(difference_, product_);
+      double s = 0.0;
+      for (std::int32_t r = 0; r < dofs_.n_free(); ++r) s += (R_[r] + product_[r]) * (R_[r] + product_[r]);
+      reference = std::max(r_norm, std::sqrt(s));
     }
-    if (r_norm <= 0.0) return linear_tolerance_;
-    return std::min(0.1, std::max(linear_tolerance_, linear_tolerance_ * reference_ / r_norm));
+    return std::min(0.1, linear_tolerance_ * reference / r_norm);
   }
 
   // Sets the linear solver up for A_ unless A_ is the matrix it already has.
@@ -198,7 +198,6 @@ class StepSolver {
   NonlinearSettings nonlinear_;
   double update_tolerance_;
   double linear_tolerance_;
-  double reference_ = 0.0;  // |R(T_n)| of the current step (see krylov_tolerance)
   std::vector<double> difference_, product_;
   bool reuse_;
   std::unique_ptr<LinearSolver> linear_;
