@@ -8,7 +8,6 @@
 #include <HYPRE_parcsr_ls.h>
 #include <_hypre_parcsr_mv.h>
 #include <mpi.h>
-#include <omp.h>
 
 #include <sched.h>
 

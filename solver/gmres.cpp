@@ -28,7 +28,7 @@ GmresOutcome gmres(const CsrMatrix& A, const std::vector<double>& b, std::vector
   x.resize(n, 0.0);
   const double b_norm = std::sqrt(dot(b, b));
   const double target = tolerance * (b_norm > 0.0 ? b_norm : 1.0);
-  std::vector<double> r(n), z(n), w(n);
+  std::vector<double> r(n), w(n);
   double beta = residual(A, b, x, r);
   std::vector<std::vector<double>> V(restart + 1, std::vector<double>(n));
   std::vector<std::vector<double>> Z(restart, std::vector<double>(n));  // M^{-1} v_j (right preconditioning)

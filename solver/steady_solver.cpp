@@ -1,9 +1,9 @@
 // Steady solve: dof map, assembler, linear solver; Newton iterations when nonlinear.
 #include "solver/steady_solver.hpp"
 
+#include <algorithm>
 #include <chrono>
 #include <cmath>
-#include <algorithm>
 #include <cstdio>
 #include <stdexcept>
 
@@ -133,7 +133,8 @@ SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, con
   // good enough for the residual to fall. The relative tolerance eta of each solve follows
   // the fall of |R| (Eisenstat & Walker, "Choosing the forcing terms in an inexact Newton
   // method", SIAM J. Sci. Comput. 17, 1996, choice 2 with gamma = 0.9, alpha = 2 and their
-  // safeguard, from memory), at most 0.1. Direct solvers solve exactly in any case.
+  // safeguard, from memory), at most 0.1. The first step is solved exactly on the direct
+  // path (a fresh factorisation); later ones by GMRES on the kept one, to eta.
   const double eta_max = 0.1;
   double eta = eta_max;
   bool jacobian_ready = false;  // A and R already hold the Jacobian and residual at T
@@ -167,8 +168,9 @@ SteadySolution solve_steady(const Mesh& mesh, const ThermalProblem& problem, con
     r_previous = r_norm;
     linear->set_tolerance(eta);
     for (double& v : R) v = -v;
-    // From the first exact Jacobian on, keep the multigrid hierarchy of the Picard
-    // matrix (the Krylov method still solves the current one); rebuild it if that fails.
+    // From the first exact Jacobian on, keep the multigrid hierarchy or the factorisation
+    // of the Picard matrix (the Krylov method still solves the current Jacobian);
+    // rebuild it if that fails.
     const auto t_setup = std::chrono::steady_clock::now();
     linear->keep_preconditioner(it >= 1);
     linear->setup(A);

@@ -24,7 +24,7 @@ struct NewtonStep {
   double update = 0.0;          // max |alpha delta T| (K)
   double step = 1.0;            // line-search factor alpha
   int linear_iterations = 0;
-  double linear_tolerance = 0.0;  // relative residual the linear solve stopped at
+  double linear_tolerance = 0.0;  // relative residual the linear solve was asked for
   double assembly_seconds = 0.0, setup_seconds = 0.0, solve_seconds = 0.0;
 };
 
