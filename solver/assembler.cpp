@@ -1,6 +1,8 @@
 // Pattern, position maps and the threaded assembly loop.
 #include "solver/assembler.hpp"
 
+#include "solver/loop_threads.hpp"
+
 #include <algorithm>
 #include <omp.h>
 #include <stdexcept>
@@ -24,7 +26,7 @@ FaceGeometry face_geometry(const Mesh& mesh, std::size_t face) {
 }
 
 Assembler::Assembler(const Mesh& mesh, const DofMap& dofs, int threads) : mesh_(mesh), dofs_(dofs) {
-  threads_ = threads > 0 ? threads : omp_get_max_threads();
+  threads_ = threads > 0 ? threads : loop_threads(static_cast<std::int64_t>(mesh.n_tets()));
   build_pattern();
   build_positions();
   partition_rows();

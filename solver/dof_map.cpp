@@ -3,6 +3,7 @@
 #include "solver/dof_map.hpp"
 
 #include "solver/csr_matrix.hpp"
+#include "solver/loop_threads.hpp"
 
 namespace hearth {
 
@@ -32,7 +33,7 @@ DofMap make_dof_map(const Mesh& mesh, const ThermalProblem& problem) {
 
 void CsrMatrix::multiply(const std::vector<double>& x, std::vector<double>& y) const {
   y.resize(n);
-#pragma omp parallel for schedule(static)
+#pragma omp parallel for schedule(static) num_threads(loop_threads(n))
   for (std::int32_t i = 0; i < n; ++i) {
     double sum = 0.0;
     for (std::int64_t p = row_ptr[i]; p < row_ptr[i + 1]; ++p) sum += val[p] * x[col[p]];

@@ -9,6 +9,7 @@
 #include "mesh/boundary_face_lookup.hpp"
 #include "solver/assembler.hpp"
 #include "solver/local_terms.hpp"
+#include "solver/loop_threads.hpp"
 #include "solver/quadrature.hpp"
 
 namespace hearth {
@@ -35,10 +36,10 @@ std::vector<double> nodal_residual(const Mesh& mesh, const ThermalProblem& probl
                                    const std::vector<double>& temperature, const std::vector<char>* element_mask,
                                    const std::vector<char>* face_mask) {
   const int npe = mesh.nodes_per_tet(), npf = mesh.nodes_per_face();
-  const int threads = omp_get_max_threads();
-  std::vector<std::vector<double>> partial(threads, std::vector<double>(mesh.n_nodes(), 0.0));
   const std::int64_t n_tets = static_cast<std::int64_t>(mesh.n_tets());
-#pragma omp parallel
+  const int threads = loop_threads(n_tets);
+  std::vector<std::vector<double>> partial(threads, std::vector<double>(mesh.n_nodes(), 0.0));
+#pragma omp parallel num_threads(threads)
   {
     std::vector<double>& r = partial[omp_get_thread_num()];
     double R[max_tet_nodes], T[max_tet_nodes];
