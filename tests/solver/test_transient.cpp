@@ -160,6 +160,67 @@ TEST(LumpedCapacitance, AluminiumCubeCoolsAsTheProductSolution) {
   }
 }
 
+// A film coefficient that changes during the run: the same aluminium cube (C17) with
+// h = 10 W/(m2 K) up to 600 s and 40 W/(m2 K) after, in fixed steps. Linear steps at an
+// unchanged step size assemble their residual only and keep the last matrix
+// (transient_solver.cpp); the step where h changes must assemble its matrix anew.
+// Checked two ways: against the same run with the matrix assembled and the solver set up
+// at every step (agreement to round-off, common practice, no source), and the mean
+// temperature against the lumped solution, tau = rho V c/(h A) = 810 s, then 202.5 s:
+// T = Tinf + (Ti - Tinf) exp(-600/810) exp(-(t - 600)/202.5) (Incropera & DeWitt
+// sect. 5.2, from memory). At 600 and 1200 s the lumped decay (fast by Bi/3, Bi = hL/k =
+// 5e-4 and 2e-3, slab eigenvalue lambda tan lambda = Bi) and BDF2's error from the kink
+// at 600 s (no restart there) each move the mean by under 0.02 K; tolerance 0.05 K.
+TEST(LumpedCapacitance, FilmCoefficientStepIsFollowed) {
+  const std::string cube =
+      "SetFactory(\"OpenCASCADE\");\nBox(1) = {0, 0, 0, 0.02, 0.02, 0.02};\nPhysical Volume(\"cube\") = {1};\n"
+      "Physical Surface(\"skin\") = {1, 2, 3, 4, 5, 6};\n";
+  const Mesh mesh = mesh_script("c17h.geo", cube, 0.01, 1);
+  TransientProblem problem;
+  problem.base = problem_for(mesh, {{"cube", 200.0}});
+  problem.base.regions[0].capacity = capacity(2700.0, 900.0);
+  const int skin = boundary_index(mesh, "skin");
+  problem.base.boundaries[skin].convection = Convection{10.0, 20.0 + celsius};
+  problem.at_time = [&](double t, ThermalProblem& p) {
+    p.boundaries[skin].convection->coefficient = PiecewiseLinear(t <= 600.0 ? 10.0 : 40.0);
+  };
+  // No restart at 600 s (as a jump in a table would bring): the step size and order
+  // stay, so that only h tells the matrices apart.
+  problem.break_times = {600.0};
+  const double rho_c_v = 2700.0 * 900.0 * 0.02 * 0.02 * 0.02;
+  struct Run {
+    TransientSolution solution;
+    std::map<double, double> mean;               // degC
+    std::map<double, std::vector<double>> field;  // K
+  };
+  auto integrate_with = [&](bool reuse) {
+    TransientSettings settings = settings_for(1200.0, 1.0, {600.0, 700.0, 1200.0});
+    settings.adaptive = false;
+    settings.reuse_linear_solver = reuse;
+    Run run;
+    TransientCallbacks callbacks;
+    callbacks.on_output = [&](const StepState& s) {
+      run.mean[s.time] = 300.0 + s.energy->stored_change / rho_c_v;
+      run.field[s.time] = *s.temperature;
+    };
+    LinearSolverSettings linear;
+    linear.tolerance = 1e-12;
+    run.solution = solve_transient(mesh, problem, std::vector<double>(mesh.n_nodes(), 300.0 + celsius), settings,
+                                   linear, callbacks);
+    EXPECT_TRUE(run.solution.completed) << run.solution.failure;
+    return run;
+  };
+  const Run kept = integrate_with(true), fresh = integrate_with(false);
+  EXPECT_GT(kept.solution.matrix_reuses, 1000);  // the residual-only steps were taken
+  for (const auto& [t, T] : fresh.field)
+    for (std::size_t i = 0; i < T.size(); ++i) ASSERT_NEAR(kept.field.at(t)[i], T[i], 1e-7) << t;
+  auto lumped = [](double t) {
+    const double decay = t <= 600.0 ? std::exp(-t / 810.0) : std::exp(-600.0 / 810.0) * std::exp(-(t - 600.0) / 202.5);
+    return 20.0 + 280.0 * decay;
+  };
+  for (const double t : {600.0, 1200.0}) EXPECT_NEAR(kept.mean.at(t), lumped(t), 0.05) << t;
+}
+
 // C25 (transient): temporal order on T* = exp(-3 pi^2 alpha t) sin(pi x) sin(pi y) sin(pi z)
 // in the unit cube, zero surface temperature. On one mesh the semi-discrete solution is
 // fixed, so halving the step isolates the time error: log2 of successive differences
