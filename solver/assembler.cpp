@@ -239,6 +239,16 @@ void Assembler::assemble_terms(const ThermalProblem& problem, const std::vector<
   double* values = J ? J->val.data() : nullptr;
   R.assign(pattern_.n, 0.0);
   const int npe = mesh_.nodes_per_tet(), npf = mesh_.nodes_per_face();
+  // Regions whose 4-node elements take the inlined constant-k path (p1_isotropic_terms):
+  // their k, or a negative value for the general path.
+  std::vector<double> plain_k(problem.regions.size(), -1.0);
+  if (npe == 4 && !problem.source_field)
+    for (std::size_t r = 0; r < plain_k.size(); ++r) {
+      const Conductivity& k = problem.regions[r].conductivity;
+      if (k.is_isotropic() && !k.depends_on_temperature()) plain_k[r] = k.principal[0].value(0.0);
+    }
+  const bool capacity = problem.time_levels.has_value();
+  const double* xyz = mesh_.coords.data();
 
 #pragma omp parallel num_threads(threads_)
   {
@@ -265,6 +275,14 @@ void Assembler::assemble_terms(const ThermalProblem& problem, const std::vector<
     for (const std::int32_t e : thread_tets_[t]) {
       const std::int32_t* nodes = mesh_.tet(e);
       for (int a = 0; a < npe; ++a) T[a] = temperature[nodes[a]];
+      const int region = mesh_.tet_region[e];
+      if (plain_k[region] >= 0.0) {
+        p1_isotropic_terms(xyz + 3 * nodes[0], xyz + 3 * nodes[1], xyz + 3 * nodes[2], xyz + 3 * nodes[3],
+                           plain_k[region], problem.regions[region].heat_source, T, F, K);
+        if (capacity) add_element_capacity(mesh_, problem, e, tet_geometry(mesh_, e), T, F, values ? K : nullptr);
+        scatter(nodes, npe, &tet_positions_[std::size_t(e) * npe * npe]);
+        continue;
+      }
       const TetGeometry g = tet_geometry(mesh_, e);
       tet_local_terms(g, problem.regions[mesh_.tet_region[e]], problem.source_field, problem.source_field_degree, T,
                       kind, F, values ? K : nullptr);

@@ -120,6 +120,32 @@ TEST(ElementMatrices, P1ConductanceOfTheUnitTetrahedron) {
   for (double f : F) EXPECT_NEAR(f, 1.0, 1e-14);
 }
 
+// The inlined constant-k path of the assembly loop (p1_isotropic_terms): on the unit
+// right tetrahedron, the hand values above (K and the load f V / 4); on a skewed
+// element, the same R and K as the general element routine (agreement to round-off,
+// common practice, no source).
+TEST(ElementMatrices, InlinedP1PathMatchesTheGeneralOne) {
+  const double unit[4][3] = {{0, 0, 0}, {1, 0, 0}, {0, 1, 0}, {0, 0, 1}};
+  const double zero[4] = {0, 0, 0, 0};
+  double R[4], K[16];
+  p1_isotropic_terms(unit[0], unit[1], unit[2], unit[3], 2.0, 24.0, zero, R, K);
+  const double expected[16] = {3, -1, -1, -1, -1, 1, 0, 0, -1, 0, 1, 0, -1, 0, 0, 1};
+  for (int i = 0; i < 16; ++i) EXPECT_NEAR(K[i], 2.0 * expected[i] / 6.0, 1e-15);
+  for (double r : R) EXPECT_NEAR(r, -1.0, 1e-14);
+
+  TetGeometry g;
+  g.order = 1;
+  const double skewed[4][3] = {{0.1, -0.2, 0.05}, {1.3, 0.1, -0.1}, {0.4, 0.9, 0.2}, {0.2, 0.3, 1.1}};
+  for (int a = 0; a < 4; ++a) g.x[a] = {skewed[a][0], skewed[a][1], skewed[a][2]};
+  RegionProperties region{"steel", 37.5, 2.0e5, std::nullopt};
+  const double T[4] = {310.0, 295.5, 402.25, 350.0};
+  double R_general[4], K_general[16];
+  tet_local_terms(g, region, nullptr, 0, T, JacobianKind::exact, R_general, K_general);
+  p1_isotropic_terms(skewed[0], skewed[1], skewed[2], skewed[3], 37.5, 2.0e5, T, R, K);
+  for (int i = 0; i < 16; ++i) EXPECT_NEAR(K[i], K_general[i], 1e-12 * std::abs(K_general[0]));
+  for (int a = 0; a < 4; ++a) EXPECT_NEAR(R[a], R_general[a], 1e-12 * 400.0 * std::abs(K_general[0]));
+}
+
 // P2 on a straight tet: the load of a unit source is -V/20 at vertices and V/5 at
 // edge nodes (closed form of int L(2L-1) and int 4 La Lb; Zienkiewicz, from memory).
 TEST(ElementMatrices, P2SourceLoadAndConductanceProperties) {
