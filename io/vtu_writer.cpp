@@ -13,10 +13,14 @@
 #include <vtkPoints.h>
 #include <vtkSmartPointer.h>
 #include <vtkStringArray.h>
+#include <vtkTypeInt32Array.h>
+#include <vtkTypeInt64Array.h>
 #include <vtkUnstructuredGrid.h>
 #include <vtkXMLUnstructuredGridWriter.h>
 
 #include <cerrno>
+#include <cstdint>
+#include <limits>
 #include <stdexcept>
 
 #include "io/atomic_file.hpp"
@@ -36,6 +40,21 @@ Ptr<vtkDoubleArray> vector_array(const char* name, const std::vector<double>& va
   std::copy(values.begin(), values.end(), array->GetPointer(0));
   return array;
 }
+// Offsets and connectivity in the given integer type: 32-bit where they fit (node and
+// element numbers in hearth are 32-bit), half the bytes of VTK's default 64-bit ids in
+// the largest arrays of the file.
+template <class IntArray>
+void set_cells(const Mesh& mesh, vtkCellArray& cells) {
+  // Our node order is VTK's (vertices, then edges 01 12 02 03 13 23), so no permutation.
+  const int npe = mesh.nodes_per_tet();
+  auto offsets = Ptr<IntArray>::New();
+  auto connectivity = Ptr<IntArray>::New();
+  offsets->SetNumberOfValues(static_cast<vtkIdType>(mesh.n_tets() + 1));
+  connectivity->SetNumberOfValues(static_cast<vtkIdType>(mesh.tet_nodes.size()));
+  for (std::size_t e = 0; e <= mesh.n_tets(); ++e) offsets->SetValue(static_cast<vtkIdType>(e), e * npe);
+  for (std::size_t k = 0; k < mesh.tet_nodes.size(); ++k) connectivity->SetValue(static_cast<vtkIdType>(k), mesh.tet_nodes[k]);
+  cells.SetData(offsets, connectivity);
+}
 }  // namespace
 
 void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units& units, const VtuFields& fields,
@@ -50,16 +69,11 @@ void write_vtu(const std::filesystem::path& path, const Mesh& mesh, const Units&
                      mesh.coords[3 * i + 2] * scale);
   grid->SetPoints(points);
 
-  // Our node order is VTK's (vertices, then edges 01 12 02 03 13 23), so no permutation.
-  const int npe = mesh.nodes_per_tet();
-  auto offsets = Ptr<vtkIdTypeArray>::New();
-  auto connectivity = Ptr<vtkIdTypeArray>::New();
-  offsets->SetNumberOfValues(static_cast<vtkIdType>(mesh.n_tets() + 1));
-  connectivity->SetNumberOfValues(static_cast<vtkIdType>(mesh.tet_nodes.size()));
-  for (std::size_t e = 0; e <= mesh.n_tets(); ++e) offsets->SetValue(static_cast<vtkIdType>(e), vtkIdType(e) * npe);
-  for (std::size_t k = 0; k < mesh.tet_nodes.size(); ++k) connectivity->SetValue(static_cast<vtkIdType>(k), mesh.tet_nodes[k]);
   auto cells = Ptr<vtkCellArray>::New();
-  cells->SetData(offsets, connectivity);
+  if (mesh.tet_nodes.size() < std::size_t(std::numeric_limits<std::int32_t>::max()))
+    set_cells<vtkTypeInt32Array>(mesh, *cells);
+  else
+    set_cells<vtkTypeInt64Array>(mesh, *cells);
   grid->SetCells(mesh.order == 2 ? VTK_QUADRATIC_TETRA : VTK_TETRA, cells);
 
   auto region = Ptr<vtkIntArray>::New();

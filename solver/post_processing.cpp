@@ -4,6 +4,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <optional>
 #include <omp.h>
 
 #include "mesh/boundary_face_lookup.hpp"
@@ -217,20 +218,33 @@ void recover_fluxes(const Mesh& mesh, const ThermalProblem& problem, const std::
   const int npe = mesh.nodes_per_tet();
   out.cell_flux.assign(3 * mesh.n_tets(), 0.0);
   out.nodal_flux.assign(3 * mesh.n_nodes(), 0.0);
-  std::vector<double> weight(mesh.n_nodes(), 0.0);
+  std::vector<double> weight(mesh.n_nodes(), 0.0), volume(mesh.n_tets());
+  const std::int64_t n_tets = static_cast<std::int64_t>(mesh.n_tets());
+  // q = -K(T) grad T at the centroid (cell field), each element on its own: in parallel.
+#pragma omp parallel for schedule(static) num_threads(loop_threads(n_tets))
+  for (std::int64_t e = 0; e < n_tets; ++e) {
+    double t_local[max_tet_nodes];
+    const TetGeometry g = tet_geometry(mesh, e);
+    for (int a = 0; a < npe; ++a) t_local[a] = T[mesh.tet(e)[a]];
+    const Point c = conducted_gradient(g, problem.regions[mesh.tet_region[e]].conductivity, t_local, {0.25, 0.25, 0.25});
+    for (int d = 0; d < 3; ++d) out.cell_flux[3 * e + d] = -c[d];
+    volume[e] = tet_volume(g);
+  }
+  // Nodal field: the volume-weighted average of each element's own flux at the node (the
+  // centroid value where that flux is constant: 4-node elements of constant K).
   double t_local[max_tet_nodes];
   for (std::size_t e = 0; e < mesh.n_tets(); ++e) {
     const Conductivity& k = problem.regions[mesh.tet_region[e]].conductivity;
-    const TetGeometry g = tet_geometry(mesh, e);
-    for (int a = 0; a < npe; ++a) t_local[a] = T[mesh.tet(e)[a]];
-    // q = -K(T) grad T at the centroid (cell field) and at each node of the element.
-    const Point c = conducted_gradient(g, k, t_local, {0.25, 0.25, 0.25});
-    for (int d = 0; d < 3; ++d) out.cell_flux[3 * e + d] = -c[d];
-    // Volume-weighted average of the element's own flux at each of its nodes.
-    const double w = tet_volume(g);
+    const bool constant = mesh.order == 1 && !k.depends_on_temperature();
+    std::optional<TetGeometry> g;
+    if (!constant) {
+      g = tet_geometry(mesh, e);
+      for (int a = 0; a < npe; ++a) t_local[a] = T[mesh.tet(e)[a]];
+    }
+    const double w = volume[e];
     for (int a = 0; a < npe; ++a) {
-      const bool constant = mesh.order == 1 && !k.depends_on_temperature();
-      const Point q = constant ? c : conducted_gradient(g, k, t_local, tet_node_reference(a));
+      const Point q = constant ? Point{-out.cell_flux[3 * e], -out.cell_flux[3 * e + 1], -out.cell_flux[3 * e + 2]}
+                               : conducted_gradient(*g, k, t_local, tet_node_reference(a));
       const std::int32_t i = mesh.tet(e)[a];
       for (int d = 0; d < 3; ++d) out.nodal_flux[3 * i + d] += -q[d] * w;
       weight[i] += w;
@@ -340,13 +354,19 @@ Results post_process(const Mesh& mesh, const ThermalProblem& problem, const std:
     const int r = mesh.tet_region[e];
     const TetGeometry g = tet_geometry(mesh, e);
     const std::int32_t* nodes = mesh.tet(e);
-    for (const auto& q : tet_rule(volume_degree(g))) {
-      tet_shape_values(g.order, q.xi, N);
-      const double w = q.weight * tet_jacobian(g, q.xi, J);
-      double t = 0.0;
-      for (int a = 0; a < mesh.nodes_per_tet(); ++a) t += N[a] * T[nodes[a]];
+    if (g.order == 1) {  // exact: the mean of the corner values times the volume
+      const double w = tet_volume(g);
       out.regions[r].volume += w;
-      t_integral[r] += w * t;
+      t_integral[r] += w * 0.25 * (T[nodes[0]] + T[nodes[1]] + T[nodes[2]] + T[nodes[3]]);
+    } else {
+      for (const auto& q : tet_rule(volume_degree(g))) {
+        tet_shape_values(g.order, q.xi, N);
+        const double w = q.weight * tet_jacobian(g, q.xi, J);
+        double t = 0.0;
+        for (int a = 0; a < mesh.nodes_per_tet(); ++a) t += N[a] * T[nodes[a]];
+        out.regions[r].volume += w;
+        t_integral[r] += w * t;
+      }
     }
     bool f = first[r];
     for (int a = 0; a < mesh.nodes_per_tet(); ++a)

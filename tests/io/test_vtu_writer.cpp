@@ -1,7 +1,9 @@
 // The VTU writer's ASCII form and its field data (read as text: VTK's XML format is
 // plain text with --ascii), and its binary forms read back through VTK's own reader.
 #include <gtest/gtest.h>
+#include <vtkCellType.h>
 #include <vtkDataArray.h>
+#include <vtkIdList.h>
 #include <vtkNew.h>
 #include <vtkPointData.h>
 #include <vtkUnstructuredGrid.h>
@@ -87,13 +89,17 @@ TEST(VtuWriter, EveryBinaryEncodingReadsBackThroughVtk) {
   VtuFields fields;
   fields.temperature = &temperature;
   std::random_device random;
+  Mesh mesh = one_tet();
+  mesh.tet_nodes = {3, 1, 0, 2};  // not the identity, so that the order read back means something
   for (const Case& c : cases) {
     const fs::path file = fs::temp_directory_path() / ("hearth_test_vtu_" + std::to_string(random()) + ".vtu");
-    write_vtu(file, one_tet(), Units{}, fields, c.encoding);
+    write_vtu(file, mesh, Units{}, fields, c.encoding);
     const std::string text = read(file);
     const std::string header = text.substr(0, text.find("<AppendedData"));
     if (c.compressor) EXPECT_NE(header.find(std::string("compressor=\"") + c.compressor + "\""), std::string::npos) << c.compressor;
     else EXPECT_EQ(header.find("compressor="), std::string::npos);
+    // 32-bit cell arrays (the writer's choice for meshes whose connectivity fits).
+    EXPECT_NE(header.find("type=\"Int32\" Name=\"connectivity\""), std::string::npos);
     vtkNew<vtkXMLUnstructuredGridReader> reader;
     reader->SetFileName(file.string().c_str());
     reader->Update();
@@ -101,6 +107,11 @@ TEST(VtuWriter, EveryBinaryEncodingReadsBackThroughVtk) {
     vtkUnstructuredGrid* grid = reader->GetOutput();
     ASSERT_EQ(grid->GetNumberOfPoints(), 4);
     ASSERT_EQ(grid->GetNumberOfCells(), 1);
+    EXPECT_EQ(grid->GetCellType(0), VTK_TETRA);
+    vtkNew<vtkIdList> ids;
+    grid->GetCellPoints(0, ids);
+    ASSERT_EQ(ids->GetNumberOfIds(), 4);
+    for (int a = 0; a < 4; ++a) EXPECT_EQ(ids->GetId(a), mesh.tet_nodes[a]);
     vtkDataArray* t = grid->GetPointData()->GetArray("temperature");
     ASSERT_NE(t, nullptr);
     // Degrees Celsius, the default unit: K - 273.15.
