@@ -140,15 +140,27 @@ TEST(PlaneWallCooling, MultigridStepsMatchTheSeriesToo) { check_plane_wall_cooli
 // the exact product solution gives centre 153.5428 / 57.9160 / 23.2915 degC and corner
 // 153.4427 / 57.8876 / 23.2890 degC at 600 / 1620 / 3600 s. Incropera & DeWitt sect. 5.2
 // and 5.8 (from memory); numbers from shared/verification.md C17; tolerance 0.02 K.
-TEST(LumpedCapacitance, AluminiumCubeCoolsAsTheProductSolution) {
+// The C17 cube (20 mm aluminium, k = 200, rho = 2700, c = 900) meshed at `size`, its skin
+// convecting with h = 10 W/(m2 K) to 20 degC.
+struct AluminiumCube {
+  Mesh mesh;
+  TransientProblem problem;
+};
+AluminiumCube aluminium_cube(const std::string& name, double size, int order) {
   const std::string cube =
       "SetFactory(\"OpenCASCADE\");\nBox(1) = {0, 0, 0, 0.02, 0.02, 0.02};\nPhysical Volume(\"cube\") = {1};\n"
       "Physical Surface(\"skin\") = {1, 2, 3, 4, 5, 6};\n";
-  const Mesh mesh = mesh_script("c17.geo", cube, 0.005, 2);
-  TransientProblem problem;
-  problem.base = problem_for(mesh, {{"cube", 200.0}});
-  problem.base.regions[0].capacity = capacity(2700.0, 900.0);
-  condition(mesh, problem.base, "skin").convection = Convection{10.0, 20.0 + celsius};
+  AluminiumCube c{mesh_script(name, cube, size, order), {}};
+  c.problem.base = problem_for(c.mesh, {{"cube", 200.0}});
+  c.problem.base.regions[0].capacity = capacity(2700.0, 900.0);
+  condition(c.mesh, c.problem.base, "skin").convection = Convection{10.0, 20.0 + celsius};
+  return c;
+}
+
+TEST(LumpedCapacitance, AluminiumCubeCoolsAsTheProductSolution) {
+  const AluminiumCube cube = aluminium_cube("c17.geo", 0.005, 2);
+  const Mesh& mesh = cube.mesh;
+  const TransientProblem& problem = cube.problem;
   const Integrated run = integrate(mesh, problem, 300.0 + celsius, settings_for(3600.0, 1.0, {600.0, 1620.0, 3600.0}, 0.0005));
   // (The step tolerance bounds each step's local error; over the ~100 steps of this run
   // their sum reaches about ten times it, so the check takes 5e-4 K for 0.02 K.)
@@ -172,15 +184,10 @@ TEST(LumpedCapacitance, AluminiumCubeCoolsAsTheProductSolution) {
 // 5e-4 and 2e-3, slab eigenvalue lambda tan lambda = Bi) and BDF2's error from the kink
 // at 600 s (no restart there) each move the mean by under 0.02 K; tolerance 0.05 K.
 TEST(LumpedCapacitance, FilmCoefficientStepIsFollowed) {
-  const std::string cube =
-      "SetFactory(\"OpenCASCADE\");\nBox(1) = {0, 0, 0, 0.02, 0.02, 0.02};\nPhysical Volume(\"cube\") = {1};\n"
-      "Physical Surface(\"skin\") = {1, 2, 3, 4, 5, 6};\n";
-  const Mesh mesh = mesh_script("c17h.geo", cube, 0.01, 1);
-  TransientProblem problem;
-  problem.base = problem_for(mesh, {{"cube", 200.0}});
-  problem.base.regions[0].capacity = capacity(2700.0, 900.0);
+  AluminiumCube cube = aluminium_cube("c17h.geo", 0.01, 1);
+  const Mesh& mesh = cube.mesh;
+  TransientProblem& problem = cube.problem;
   const int skin = boundary_index(mesh, "skin");
-  problem.base.boundaries[skin].convection = Convection{10.0, 20.0 + celsius};
   problem.at_time = [&](double t, ThermalProblem& p) {
     p.boundaries[skin].convection->coefficient = PiecewiseLinear(t <= 600.0 ? 10.0 : 40.0);
   };
