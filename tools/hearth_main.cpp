@@ -29,7 +29,7 @@ void add_common(CLI::App* command, hearth::CommonOptions& options, bool with_out
       ->type_name("KEY=VALUE")
       ->take_all()
       ->allow_extra_args(false);
-  command->add_option("--threads", options.threads, "threads for assembly and post-processing (default: all cores) and meshing (default: 2)")
+  command->add_option("--threads", options.threads, "threads for assembly and post-processing (default: all cores; meshes under 50 000 elements use one) and meshing (default: 2)")
       ->check(CLI::Range(1, 4096));
   command->add_flag("--quiet", options.quiet, "no progress lines; warnings and errors only");
   command->add_flag("--trust-geometry", options.trust_geometry,
