@@ -29,21 +29,14 @@ void tet_local_terms(const TetGeometry& g, const RegionProperties& region,
 // The case large linear solves are made of, inlined into the assembly loop: a 4-node
 // element of constant isotropic conductivity k (W/(m K)) and uniform source f (W/m3),
 // from its corner coordinates (x, y, z each, m). K = k V G G^T with the constant
-// gradients G = g / det (g the cross products of the edge vectors, det = 6 V), so
+// gradients G = g / det (g from p1_scaled_gradients, det = 6 V), so
 // K_ab = k (g_a . g_b) / (6 det); R = K T - f V / 4. The values of tet_local_terms,
 // without copying the element's geometry or reading k and f from their tables per
 // element. K is always written (R needs it).
 inline void p1_isotropic_terms(const double* x0, const double* x1, const double* x2, const double* x3, double k,
                                double f, const double* T, double* R, double* K) {
-  const double a[3] = {x1[0] - x0[0], x1[1] - x0[1], x1[2] - x0[2]};
-  const double b[3] = {x2[0] - x0[0], x2[1] - x0[1], x2[2] - x0[2]};
-  const double c[3] = {x3[0] - x0[0], x3[1] - x0[1], x3[2] - x0[2]};
   double g[4][3];
-  g[1][0] = b[1] * c[2] - b[2] * c[1], g[1][1] = b[2] * c[0] - b[0] * c[2], g[1][2] = b[0] * c[1] - b[1] * c[0];
-  g[2][0] = c[1] * a[2] - c[2] * a[1], g[2][1] = c[2] * a[0] - c[0] * a[2], g[2][2] = c[0] * a[1] - c[1] * a[0];
-  g[3][0] = a[1] * b[2] - a[2] * b[1], g[3][1] = a[2] * b[0] - a[0] * b[2], g[3][2] = a[0] * b[1] - a[1] * b[0];
-  for (int d = 0; d < 3; ++d) g[0][d] = -g[1][d] - g[2][d] - g[3][d];
-  const double det = a[0] * g[1][0] + a[1] * g[1][1] + a[2] * g[1][2];
+  const double det = p1_scaled_gradients(x0, x1, x2, x3, g);
   const double w = k / (6.0 * det), share = f * det / 24.0;
   for (int i = 0; i < 4; ++i)
     for (int j = i; j < 4; ++j) K[i * 4 + j] = K[j * 4 + i] = w * (g[i][0] * g[j][0] + g[i][1] * g[j][1] + g[i][2] * g[j][2]);

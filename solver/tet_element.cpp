@@ -89,21 +89,11 @@ double tet_volume(const TetGeometry& g) {
 }
 
 double p1_gradients(const TetGeometry& g, double (*grad)[3]) {
-  const double a[3] = {g.x[1][0] - g.x[0][0], g.x[1][1] - g.x[0][1], g.x[1][2] - g.x[0][2]};
-  const double b[3] = {g.x[2][0] - g.x[0][0], g.x[2][1] - g.x[0][1], g.x[2][2] - g.x[0][2]};
-  const double c[3] = {g.x[3][0] - g.x[0][0], g.x[3][1] - g.x[0][1], g.x[3][2] - g.x[0][2]};
   // Rows of J^{-T}: the gradients of L1, L2, L3 are (b x c, c x a, a x b) / det.
-  const double g1[3] = {b[1] * c[2] - b[2] * c[1], b[2] * c[0] - b[0] * c[2], b[0] * c[1] - b[1] * c[0]};
-  const double g2[3] = {c[1] * a[2] - c[2] * a[1], c[2] * a[0] - c[0] * a[2], c[0] * a[1] - c[1] * a[0]};
-  const double g3[3] = {a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]};
-  const double det = a[0] * g1[0] + a[1] * g1[1] + a[2] * g1[2];
+  const double det = p1_scaled_gradients(g.x[0].data(), g.x[1].data(), g.x[2].data(), g.x[3].data(), grad);
   const double inv = 1.0 / det;
-  for (int d = 0; d < 3; ++d) {
-    grad[1][d] = g1[d] * inv;
-    grad[2][d] = g2[d] * inv;
-    grad[3][d] = g3[d] * inv;
-    grad[0][d] = -grad[1][d] - grad[2][d] - grad[3][d];
-  }
+  for (int a = 0; a < 4; ++a)
+    for (int d = 0; d < 3; ++d) grad[a][d] *= inv;
   return det;
 }
 

@@ -31,6 +31,20 @@ double tet_physical_gradients(const TetGeometry& g, const Point& xi, double (*gr
 // The constant gradients of a 4-node element's shape functions, in closed form (edge
 // cross products); returns det J = 6 V.
 double p1_gradients(const TetGeometry& g, double (*grad)[3]);
+// The same gradients times det J, from the corner coordinates (x, y, z each): with a,
+// b, c the edges from corner 0, g_1 = b x c, g_2 = c x a, g_3 = a x b and
+// g_0 = -(g_1 + g_2 + g_3). Returns det J. Inline for the assembly loop's constant-k path.
+inline double p1_scaled_gradients(const double* x0, const double* x1, const double* x2, const double* x3,
+                                  double (*g)[3]) {
+  const double a[3] = {x1[0] - x0[0], x1[1] - x0[1], x1[2] - x0[2]};
+  const double b[3] = {x2[0] - x0[0], x2[1] - x0[1], x2[2] - x0[2]};
+  const double c[3] = {x3[0] - x0[0], x3[1] - x0[1], x3[2] - x0[2]};
+  g[1][0] = b[1] * c[2] - b[2] * c[1], g[1][1] = b[2] * c[0] - b[0] * c[2], g[1][2] = b[0] * c[1] - b[1] * c[0];
+  g[2][0] = c[1] * a[2] - c[2] * a[1], g[2][1] = c[2] * a[0] - c[0] * a[2], g[2][2] = c[0] * a[1] - c[1] * a[0];
+  g[3][0] = a[1] * b[2] - a[2] * b[1], g[3][1] = a[2] * b[0] - a[0] * b[2], g[3][2] = a[0] * b[1] - a[1] * b[0];
+  for (int d = 0; d < 3; ++d) g[0][d] = -g[1][d] - g[2][d] - g[3][d];
+  return a[0] * g[1][0] + a[1] * g[1][1] + a[2] * g[1][2];
+}
 Point tet_map(const TetGeometry& g, const Point& xi);
 
 double tet_volume(const TetGeometry& g);
