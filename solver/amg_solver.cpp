@@ -19,6 +19,7 @@
 #include <stdexcept>
 
 #include "solver/linear_solver.hpp"
+#include "solver/loop_threads.hpp"
 
 namespace hearth {
 
@@ -68,7 +69,7 @@ void ensure_mpi() {
 void copy_values(const CsrMatrix& A, hypre_ParCSRMatrix* M) {
   hypre_CSRMatrix* diag = hypre_ParCSRMatrixDiag(M);
   HYPRE_Complex* data = hypre_CSRMatrixData(diag);
-#pragma omp parallel for schedule(static)
+#pragma omp parallel for schedule(static) num_threads(loop_threads(A.n))
   for (std::int32_t r = 0; r < A.n; ++r) {
     const std::int64_t begin = A.row_ptr[r], end = A.row_ptr[r + 1];
     // Row r in hypre: the diagonal, then the other columns in increasing order.
@@ -90,7 +91,7 @@ hypre_ParCSRMatrix* make_parcsr(const CsrMatrix& A) {
   HYPRE_Int* j = hypre_CSRMatrixJ(diag);
   for (std::int32_t r = 0; r <= A.n; ++r) i[r] = static_cast<HYPRE_Int>(A.row_ptr[r]);
   std::int32_t rows_without_diagonal = 0;
-#pragma omp parallel for schedule(static) reduction(+ : rows_without_diagonal)
+#pragma omp parallel for schedule(static) reduction(+ : rows_without_diagonal) num_threads(loop_threads(A.n))
   for (std::int32_t r = 0; r < A.n; ++r) {
     const std::int64_t begin = A.row_ptr[r], end = A.row_ptr[r + 1];
     if (!std::binary_search(A.col.begin() + begin, A.col.begin() + end, r)) {
@@ -218,8 +219,8 @@ class AmgCgSolver final : public LinearSolver {
     report.setup_seconds = setup_seconds_;
     const auto t0 = std::chrono::steady_clock::now();
     x.resize(A_->n, 0.0);
-    set_vector(ij_b_, b);
-    set_vector(ij_x_, x);
+    std::copy(b.begin(), b.end(), local_values(par_b_));
+    std::copy(x.begin(), x.end(), local_values(par_x_));
     HYPRE_Int iterations = 0;
     if (symmetric_) {
       HYPRE_ParCSRPCGSolve(pcg_, parcsr_, par_b_, par_x_);
@@ -229,9 +230,7 @@ class AmgCgSolver final : public LinearSolver {
       HYPRE_GMRESGetNumIterations(pcg_, &iterations);
     }
     HYPRE_ClearAllErrors();
-    std::vector<HYPRE_BigInt> rows(A_->n);
-    for (std::int32_t i = 0; i < A_->n; ++i) rows[i] = i;
-    HYPRE_IJVectorGetValues(ij_x_, A_->n, rows.data(), x.data());
+    std::copy(local_values(par_x_), local_values(par_x_) + A_->n, x.begin());
     report.iterations = iterations;
     report.solve_seconds = seconds_since(t0);
     report.relative_residual = relative_residual(*A_, b, x);
@@ -253,10 +252,10 @@ class AmgCgSolver final : public LinearSolver {
     HYPRE_IJVectorAssemble(*ij);
     HYPRE_IJVectorGetObject(*ij, reinterpret_cast<void**>(par));
   }
-  void set_vector(HYPRE_IJVector ij, const std::vector<double>& values) {
-    std::vector<HYPRE_BigInt> rows(A_->n);
-    for (std::int32_t i = 0; i < A_->n; ++i) rows[i] = i;
-    HYPRE_IJVectorSetValues(ij, A_->n, rows.data(), values.data());
+  // One process owns every row, so a vector's values are its local vector's array: read
+  // and written in place, as the matrix is, without the IJ interface's index lists.
+  static HYPRE_Complex* local_values(HYPRE_ParVector par) {
+    return hypre_VectorData(hypre_ParVectorLocalVector(par));
   }
   void release() {
     destroy_krylov();
